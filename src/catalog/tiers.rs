@@ -1,0 +1,293 @@
+//! The assumption tiers and their one table of values.
+//!
+//! Every rule evaluates a claim three times, most generous first: with the
+//! laws of physics only, with the best that real hardware of the class
+//! achieves, and with what an ordinary build achieves. Each row below states
+//! its three values and its basis; the methods page prints this table as is.
+
+use serde::Serialize;
+use uom::si::f64::Length;
+use uom::si::length::millimeter;
+
+use super::{Basis, Drive};
+
+#[derive(Debug, Clone, Copy, PartialEq, Eq, PartialOrd, Ord, Hash, Serialize)]
+#[serde(rename_all = "kebab-case")]
+pub enum Tier {
+    PhysicalLimit,
+    BestPractice,
+    Typical,
+}
+
+impl Tier {
+    /// Most generous first: the order in which a claim is tried.
+    pub const ALL: [Tier; 3] = [Tier::PhysicalLimit, Tier::BestPractice, Tier::Typical];
+
+    pub fn id(self) -> &'static str {
+        match self {
+            Tier::PhysicalLimit => "physical-limit",
+            Tier::BestPractice => "best-practice",
+            Tier::Typical => "typical",
+        }
+    }
+
+    pub fn label(self) -> &'static str {
+        match self {
+            Tier::PhysicalLimit => "physical limit",
+            Tier::BestPractice => "best practice",
+            Tier::Typical => "typical build",
+        }
+    }
+
+    fn index(self) -> usize {
+        self as usize
+    }
+}
+
+/// One row of the tier table.
+#[derive(Debug, Clone, Serialize)]
+pub struct Row {
+    pub key: &'static str,
+    pub label: &'static str,
+    pub unit: &'static str,
+    /// Values at physical limit, best practice, typical.
+    pub values: [f64; 3],
+    pub basis: Basis,
+}
+
+impl Row {
+    pub fn at(&self, tier: Tier) -> f64 {
+        self.values[tier.index()]
+    }
+}
+
+const fn row(
+    key: &'static str,
+    label: &'static str,
+    unit: &'static str,
+    values: [f64; 3],
+    basis: Basis,
+) -> Row {
+    Row {
+        key,
+        label,
+        unit,
+        values,
+        basis,
+    }
+}
+
+pub const FM_SMALL: Row = row(
+    "figure_of_merit_small",
+    "Figure of merit, rotors under 100 mm",
+    "1",
+    [1.0, 0.75, 0.45],
+    Basis::FromMemory("micro rotors reach 0.4-0.6; good full-scale rotors 0.7-0.8"),
+);
+pub const FM_MEDIUM: Row = row(
+    "figure_of_merit_medium",
+    "Figure of merit, rotors 100-250 mm",
+    "1",
+    [1.0, 0.75, 0.55],
+    Basis::FromMemory("small hobby propellers 0.5-0.6; good full-scale rotors 0.7-0.8"),
+);
+pub const FM_LARGE: Row = row(
+    "figure_of_merit_large",
+    "Figure of merit, rotors over 250 mm",
+    "1",
+    [1.0, 0.80, 0.65],
+    Basis::FromMemory("good full-scale rotors 0.7-0.8"),
+);
+pub const BRUSHLESS_MOTOR: Row = row(
+    "brushless_motor_efficiency",
+    "Brushless motor efficiency",
+    "1",
+    [1.0, 0.90, 0.80],
+    Basis::FromMemory("outrunners peak near 0.9; 0.75-0.85 at hover throttle"),
+);
+pub const BRUSHLESS_CONTROLLER: Row = row(
+    "brushless_controller_efficiency",
+    "Brushless speed controller efficiency",
+    "1",
+    [1.0, 0.97, 0.95],
+    Basis::FromMemory("MOSFET controllers lose 3-5 % at hover current"),
+);
+pub const BRUSHED_MOTOR: Row = row(
+    "brushed_motor_efficiency",
+    "Brushed coreless motor efficiency",
+    "1",
+    [1.0, 0.75, 0.55],
+    Basis::FromMemory("coreless motors peak near 0.75; about 0.55 at the loads micro craft run"),
+);
+pub const BRUSHED_DRIVER: Row = row(
+    "brushed_driver_efficiency",
+    "Brushed motor driver (MOSFET) efficiency",
+    "1",
+    [1.0, 0.98, 0.95],
+    Basis::FromMemory("a single low-side MOSFET loses a few percent"),
+);
+pub const DEPTH_OF_DISCHARGE: Row = row(
+    "depth_of_discharge",
+    "Usable fraction of the battery's capacity",
+    "1",
+    [1.0, 0.90, 0.80],
+    Basis::CommonPractice("land with about 20 % left to spare lithium cells"),
+);
+pub const AVIONICS_POWER: Row = row(
+    "avionics_power",
+    "Power drawn by electronics other than motors",
+    "W",
+    [0.0, 0.5, 1.0],
+    Basis::CommonPractice("a flight controller and receiver draw about 1 W"),
+);
+pub const HOVER_FRACTION_MAX: Row = row(
+    "hover_fraction_max",
+    "Largest share of maximum thrust spent to hover",
+    "1",
+    [1.0, 1.0, 0.70],
+    Basis::CommonPractice(
+        "hover at no more than about 70 % of maximum thrust, leaving room to climb and steer",
+    ),
+);
+pub const BODY_DRAG: Row = row(
+    "body_drag_coefficient",
+    "Drag coefficient of the body in a headwind",
+    "1",
+    [2.0, 1.28, 1.05],
+    Basis::Source("hoerner-1965"),
+);
+pub const THRUST_MISMATCH: Row = row(
+    "thrust_mismatch",
+    "Thrust mismatch between rotors at one command",
+    "1",
+    [0.01, 0.02, 0.05],
+    Basis::CommonPractice("motors and propellers of one batch differ by a few percent"),
+);
+pub const GYRO_DRIFT: Row = row(
+    "gyro_drift",
+    "Rate-gyro bias drift, uncorrected",
+    "deg/h",
+    [0.0, 10.0, 360.0],
+    Basis::FromMemory(
+        "calibrated MEMS gyros 1-10 deg/h; uncorrected consumer parts about 0.1 deg/s",
+    ),
+);
+pub const ACCEL_BIAS: Row = row(
+    "accelerometer_bias",
+    "Accelerometer bias, uncorrected",
+    "m/s^2",
+    [0.0, 0.005, 0.05],
+    Basis::FromMemory("consumer MEMS accelerometers 0.5-5 mg after calibration"),
+);
+pub const LEVEL_ERROR: Row = row(
+    "level_error",
+    "Error of the level reference an autopilot holds",
+    "deg",
+    [0.0, 0.2, 1.0],
+    Basis::FromMemory(
+        "accelerometer levelling to a fraction of a degree, mounting error about 1 deg",
+    ),
+);
+
+/// The whole table, in the order the methods page prints it.
+pub const TABLE: &[&Row] = &[
+    &FM_SMALL,
+    &FM_MEDIUM,
+    &FM_LARGE,
+    &BRUSHLESS_MOTOR,
+    &BRUSHLESS_CONTROLLER,
+    &BRUSHED_MOTOR,
+    &BRUSHED_DRIVER,
+    &DEPTH_OF_DISCHARGE,
+    &AVIONICS_POWER,
+    &HOVER_FRACTION_MAX,
+    &BODY_DRAG,
+    &THRUST_MISMATCH,
+    &GYRO_DRIFT,
+    &ACCEL_BIAS,
+    &LEVEL_ERROR,
+];
+
+/// The figure of merit for a rotor of this diameter at this tier.
+pub fn figure_of_merit(tier: Tier, diameter: Length) -> f64 {
+    fm_row(diameter).at(tier)
+}
+
+/// The row the figure of merit of a rotor of this diameter is read from.
+pub fn fm_row(diameter: Length) -> &'static Row {
+    let mm = diameter.get::<millimeter>();
+    if mm < 100.0 {
+        &FM_SMALL
+    } else if mm <= 250.0 {
+        &FM_MEDIUM
+    } else {
+        &FM_LARGE
+    }
+}
+
+/// Motor times controller efficiency, battery to shaft.
+pub fn drive_efficiency(tier: Tier, drive: Drive) -> f64 {
+    match drive {
+        Drive::Brushless => BRUSHLESS_MOTOR.at(tier) * BRUSHLESS_CONTROLLER.at(tier),
+        Drive::Brushed => BRUSHED_MOTOR.at(tier) * BRUSHED_DRIVER.at(tier),
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn every_row_is_most_generous_at_the_physical_limit() {
+        // Tier order (DESIGN): physical limit, best practice, typical. For each row
+        // the generous direction is known: efficiencies and allowances fall, losses rise.
+        let falling = [
+            &FM_SMALL,
+            &FM_MEDIUM,
+            &FM_LARGE,
+            &BRUSHLESS_MOTOR,
+            &BRUSHLESS_CONTROLLER,
+            &BRUSHED_MOTOR,
+            &BRUSHED_DRIVER,
+            &DEPTH_OF_DISCHARGE,
+            &HOVER_FRACTION_MAX,
+            &BODY_DRAG,
+        ];
+        for r in falling {
+            assert!(
+                r.values[0] >= r.values[1] && r.values[1] >= r.values[2],
+                "{}",
+                r.key
+            );
+        }
+        let rising = [
+            &AVIONICS_POWER,
+            &THRUST_MISMATCH,
+            &GYRO_DRIFT,
+            &ACCEL_BIAS,
+            &LEVEL_ERROR,
+        ];
+        for r in rising {
+            assert!(
+                r.values[0] <= r.values[1] && r.values[1] <= r.values[2],
+                "{}",
+                r.key
+            );
+        }
+        assert_eq!(falling.len() + rising.len(), TABLE.len());
+    }
+
+    #[test]
+    fn typical_figure_of_merit_follows_rotor_size() {
+        // DESIGN tier table: about 0.45 below 100 mm, 0.55 to 250 mm, 0.65 above.
+        let fm = |mm| figure_of_merit(Tier::Typical, Length::new::<millimeter>(mm));
+        assert_eq!((fm(55.0), fm(127.0), fm(300.0)), (0.45, 0.55, 0.65));
+    }
+
+    #[test]
+    fn typical_brushless_drive_is_point_eight_times_point_nine_five() {
+        // DESIGN tier table: brushless 0.80 x ESC 0.95; best practice 0.90 x 0.97.
+        assert!((drive_efficiency(Tier::Typical, Drive::Brushless) - 0.76).abs() < 1e-12);
+        assert!((drive_efficiency(Tier::BestPractice, Drive::Brushless) - 0.873).abs() < 1e-12);
+    }
+}

@@ -1,0 +1,117 @@
+//! Steps shared by the rules: the air and weight of a claim, the tier walk,
+//! and figure builders.
+
+use uom::si::f64::{Force, Length};
+
+use crate::catalog::tiers::Tier;
+use crate::claim::Claim;
+use crate::physics::atmosphere::{self, Air};
+use crate::report::{Figure, Verdict};
+
+/// The air the claim flies in: ISA at the stated altitude and temperature.
+pub fn air(claim: &Claim) -> Air {
+    atmosphere::isa(claim.conditions.altitude, claim.conditions.temperature)
+}
+
+/// Weight W = m g with the local gravity (`isa`).
+pub fn weight(claim: &Claim, air: &Air) -> Force {
+    claim.craft.mass * air.gravity
+}
+
+/// The first tier, most generous first, at which `passes` is false.
+pub fn first_failure(mut passes: impl FnMut(Tier) -> bool) -> Option<Tier> {
+    Tier::ALL.into_iter().find(|&t| !passes(t))
+}
+
+/// The verdict from the first failing tier of `passes`.
+pub fn verdict_of(passes: impl FnMut(Tier) -> bool) -> Verdict {
+    Verdict::failing_at(first_failure(passes))
+}
+
+/// A figure at one tier.
+pub fn tiered(
+    key: &'static str,
+    label: &str,
+    tier: Tier,
+    value: f64,
+    unit: &'static str,
+) -> Figure {
+    Figure {
+        key,
+        label: label.to_string(),
+        tier: Some(tier),
+        value,
+        unit,
+    }
+}
+
+/// A figure that does not depend on the tier.
+pub fn fixed(key: &'static str, label: &str, value: f64, unit: &'static str) -> Figure {
+    Figure {
+        key,
+        label: label.to_string(),
+        tier: None,
+        value,
+        unit,
+    }
+}
+
+/// One figure per tier from `value(tier)`.
+pub fn per_tier(
+    key: &'static str,
+    label: &str,
+    unit: &'static str,
+    mut value: impl FnMut(Tier) -> f64,
+) -> Vec<Figure> {
+    Tier::ALL
+        .into_iter()
+        .map(|t| tiered(key, label, t, value(t), unit))
+        .collect()
+}
+
+/// The rotor diameter: stated, else the middle of the motor class's usual range.
+pub fn rotor_diameter(claim: &Claim) -> Option<(Length, bool)> {
+    match (claim.rotors.diameter, claim.rotors.motor) {
+        (Some(d), _) => Some((d, true)),
+        (None, Some(class)) => Some((class.usual_prop(), false)),
+        (None, None) => None,
+    }
+}
+
+/// Rounds for headlines: three significant figures.
+pub fn sig3(v: f64) -> String {
+    if !v.is_finite() {
+        return "n/a".to_string();
+    }
+    if v == 0.0 {
+        return "0".to_string();
+    }
+    let digits = 3 - 1 - v.abs().log10().floor() as i32;
+    if digits <= 0 {
+        format!("{:.0}", v)
+    } else {
+        format!("{:.*}", digits as usize, v)
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn the_tier_walk_stops_at_the_first_failure() {
+        assert_eq!(first_failure(|_| true), None);
+        assert_eq!(
+            first_failure(|t| t != Tier::BestPractice),
+            Some(Tier::BestPractice)
+        );
+        assert_eq!(verdict_of(|_| false), Verdict::Impossible);
+    }
+
+    #[test]
+    fn headline_numbers_keep_three_significant_figures() {
+        assert_eq!(sig3(5.0667), "5.07");
+        assert_eq!(sig3(1234.6), "1235");
+        assert_eq!(sig3(0.012345), "0.0123");
+    }
+}

@@ -1,0 +1,109 @@
+//! Every published source a figure may cite, by id. Reports carry the ids;
+//! the methods page prints the whole list with anchors `#source-{id}`.
+
+use serde::Serialize;
+
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
+pub struct Source {
+    pub id: &'static str,
+    pub title: &'static str,
+    /// Authors, publisher, year, and what is taken from it.
+    pub detail: &'static str,
+}
+
+pub const SOURCES: &[Source] = &[
+    Source {
+        id: "isa",
+        title: "ISO 2533:1975 Standard Atmosphere; U.S. Standard Atmosphere, 1976",
+        detail: "International Organization for Standardization, 1975; NOAA/NASA/USAF, 1976. \
+                 Troposphere: T = 288.15 K - 6.5 K/km x h, p = 101325 Pa (T/288.15)^5.2559, \
+                 rho = p / (287.053 T); g0 = 9.80665 m/s^2.",
+    },
+    Source {
+        id: "momentum-theory",
+        title: "Momentum (actuator-disk) theory of the hovering rotor",
+        detail: "Rankine and Froude; Glauert, The Elements of Aerofoil and Airscrew Theory, 1926; \
+                 any rotorcraft aerodynamics text (e.g. Leishman, Principles of Helicopter \
+                 Aerodynamics, 2006, ch. 2). v_h = sqrt(T / (2 rho A)), P_ideal = T v_h, \
+                 figure of merit FM = P_ideal / P_shaft.",
+    },
+    Source {
+        id: "statics",
+        title: "Statics of a rigid body",
+        detail: "Newton's laws, any first-year mechanics text: a thrust T tilted by theta from the \
+                 vertical has components T cos(theta) up and T sin(theta) sideways; with T cos(theta) \
+                 = W the sideways force is W tan(theta), the acceleration g tan(theta).",
+    },
+    Source {
+        id: "hoerner-1965",
+        title: "Hoerner, Fluid-Dynamic Drag, 1965",
+        detail: "S. F. Hoerner, published by the author, 1965. Drag F = 1/2 rho v^2 Cd A; flat plate \
+                 normal to the flow Cd about 1.17-1.28, cube about 1.05, two-dimensional plate \
+                 about 2.",
+    },
+    Source {
+        id: "battery-energy",
+        title: "Electrical energy of a battery",
+        detail: "E = n V_nominal Q (cells x nominal cell voltage x capacity), I = P / V; a C rate \
+                 is current divided by capacity per hour. Linden's Handbook of Batteries \
+                 (Reddy, 4th ed., 2011) for cell voltages and specific energies.",
+    },
+    Source {
+        id: "endurance-ceiling",
+        title: "Hover endurance against battery mass",
+        detail: "From momentum theory with a battery of fixed specific energy e: t = e m_b / P(m_0 + m_b) \
+                 with P ~ (m g)^(3/2) / sqrt(2 rho A), so t ~ m_b / (m_0 + m_b)^(3/2), greatest at \
+                 m_b = 2 m_0 (set dt/dm_b = 0).",
+    },
+    Source {
+        id: "rigid-body",
+        title: "Rotational dynamics of a rigid body",
+        detail: "Euler's equation about a principal axis, M = I alpha; moment of inertia of a solid \
+                 box about its centre I = m (a^2 + b^2) / 12 (any mechanics text). From rest, \
+                 theta = alpha t^2 / 2.",
+    },
+    Source {
+        id: "feedback-stability",
+        title: "Stabilisation of an open-loop unstable system",
+        detail: "Any control text (e.g. Franklin, Powell, Emami-Naeini, Feedback Control of Dynamic \
+                 Systems): a plant with a pole in the right half-plane is stabilised only by feedback \
+                 of its states; a hovering multirotor's attitude has no restoring moment, so it \
+                 needs its angular rate measured.",
+    },
+    Source {
+        id: "reaction-time",
+        title: "Human simple reaction time",
+        detail: "About 0.2-0.25 s to a visual cue (from memory; ergonomics handbooks).",
+    },
+    Source {
+        id: "inertial-drift",
+        title: "Dead reckoning with inertial sensors",
+        detail: "A constant gyro bias b gives an attitude error b t; a constant acceleration error a \
+                 gives a position error a t^2 / 2 (Titterton and Weston, Strapdown Inertial \
+                 Navigation Technology, 2004, ch. 12).",
+    },
+    Source {
+        id: "du-2015",
+        title: "Du, Quan, Yang, Cai, Controllability analysis for multirotor helicopter rotor \
+                degradation and failure, 2015",
+        detail: "G.-X. Du, Q. Quan, B. Yang, K.-Y. Cai, Journal of Guidance, Control, and Dynamics \
+                 38(5), 2015. Available control authority index (ACAI): the distance from the hover \
+                 point to the boundary of the attainable force and moment set.",
+    },
+];
+
+pub fn get(id: &str) -> Option<&'static Source> {
+    SOURCES.iter().find(|s| s.id == id)
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn source_ids_are_unique() {
+        for (i, a) in SOURCES.iter().enumerate() {
+            assert!(SOURCES[i + 1..].iter().all(|b| b.id != a.id), "{}", a.id);
+        }
+    }
+}
