@@ -7,6 +7,7 @@
 //! Body axes follow ROS REP 103 (x forward, y left, z up, right-handed); spin
 //! senses are as seen from above.
 
+pub mod demo;
 mod read;
 mod tree;
 pub mod units;
