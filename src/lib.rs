@@ -7,3 +7,4 @@ pub mod physics;
 pub mod report;
 pub mod rules;
 pub mod sources;
+pub mod web;

@@ -1,0 +1,190 @@
+//! The JSON API and the downloads.
+//!
+//! `POST /api/v1/check` answers with the report of the `liftaudit.report/1`
+//! contract; `GET /api/v1/catalog` with the built-in data the rules use.
+
+use axum::body::Bytes;
+use axum::extract::rejection::BytesRejection;
+use axum::extract::{Path, State};
+use axum::http::{header, HeaderMap, HeaderValue};
+use axum::response::{IntoResponse, Response};
+use axum::{Form, Json};
+use serde::{Deserialize, Serialize};
+
+use crate::catalog::{self, tiers};
+use crate::claim::{self, Format};
+use crate::report::Report;
+use crate::rules;
+
+use super::error::{ApiError, Error};
+use super::SharedState;
+
+/// The blank sheet offered for download: every field, the optional ones
+/// commented out.
+pub const SHEET_TEMPLATE: &str = include_str!("../../static/claim-sheet.toml");
+
+/// The sheet format a request's Content-Type names; `None` for a type we do
+/// not read. No type, or plain text, is told by the text itself.
+fn format_of(headers: &HeaderMap, body: &str) -> Result<Format, Error> {
+    let Some(value) = headers.get(header::CONTENT_TYPE) else {
+        return Ok(claim::sniff(body));
+    };
+    let essence = value
+        .to_str()
+        .unwrap_or("")
+        .split(';')
+        .next()
+        .unwrap_or("")
+        .trim()
+        .to_ascii_lowercase();
+    match essence.as_str() {
+        "application/toml" | "text/toml" | "application/x-toml" => Ok(Format::Toml),
+        "application/json" => Ok(Format::Json),
+        t if t.ends_with("+json") => Ok(Format::Json),
+        "text/plain" | "" => Ok(claim::sniff(body)),
+        other => Err(Error::UnsupportedMediaType(format!(
+            "'{other}' is not a sheet format; send application/json or application/toml"
+        ))),
+    }
+}
+
+fn body_text(body: Result<Bytes, BytesRejection>) -> Result<String, Error> {
+    let bytes = body.map_err(|e| Error::from_status(e.status(), e.body_text()))?;
+    String::from_utf8(bytes.to_vec()).map_err(|_| Error::BadRequest("the body is not UTF-8 text".into()))
+}
+
+fn json_response(json: String, attachment: Option<&str>) -> Response {
+    let mut response = (
+        [(header::CONTENT_TYPE, HeaderValue::from_static("application/json"))],
+        json,
+    )
+        .into_response();
+    if let Some(name) = attachment {
+        set_attachment(&mut response, name);
+    }
+    response
+}
+
+/// Marks a response as a file to save. `name` is ours (a demo name or a
+/// fixed word), never user text, so it needs no quoting beyond the quotes.
+fn set_attachment(response: &mut Response, name: &str) {
+    if let Ok(v) = HeaderValue::from_str(&format!("attachment; filename=\"{name}\"")) {
+        response.headers_mut().insert(header::CONTENT_DISPOSITION, v);
+    }
+}
+
+fn report_of(text: &str, format: Format) -> Result<Report, Error> {
+    let claim = claim::parse(text, format)?;
+    Ok(rules::run_all(&claim))
+}
+
+/// `POST /api/v1/check`: a sheet in, the report out.
+pub async fn check(
+    headers: HeaderMap,
+    body: Result<Bytes, BytesRejection>,
+) -> Result<Response, ApiError> {
+    let text = body_text(body)?;
+    let format = format_of(&headers, &text)?;
+    let report = report_of(&text, format)?;
+    Ok(json_response(report.to_json(), None))
+}
+
+/// The shape of `GET /api/v1/catalog`.
+#[derive(Serialize)]
+struct CatalogBody {
+    schema: &'static str,
+    motors: &'static [catalog::MotorClass],
+    chemistries: &'static [catalog::Chemistry],
+    tiers: Vec<TierEntry>,
+    tier_table: &'static [&'static tiers::Row],
+}
+
+#[derive(Serialize)]
+struct TierEntry {
+    id: &'static str,
+    label: &'static str,
+}
+
+/// `GET /api/v1/catalog`: motor classes, chemistries, tiers and their table.
+pub async fn catalog() -> Json<impl Serialize> {
+    Json(CatalogBody {
+        schema: "liftaudit.catalog/1",
+        motors: catalog::MOTORS,
+        chemistries: catalog::CHEMISTRIES,
+        tiers: tiers::Tier::ALL
+            .iter()
+            .map(|t| TierEntry {
+                id: t.id(),
+                label: t.label(),
+            })
+            .collect(),
+        tier_table: tiers::TABLE,
+    })
+}
+
+/// `GET /healthz`: up, with the demos loaded.
+pub async fn healthz(State(state): State<SharedState>) -> Json<serde_json::Value> {
+    Json(serde_json::json!({
+        "status": "ok",
+        "engine": crate::report::ENGINE,
+        "demos": state.demos.len(),
+        "rules": rules::REGISTRY.len(),
+    }))
+}
+
+/// `GET /demo/{name}/report.json`.
+pub async fn demo_report(
+    State(state): State<SharedState>,
+    Path(name): Path<String>,
+) -> Result<Response, ApiError> {
+    let d = state.demo(&name).ok_or(Error::NotFound)?;
+    let file = format!("{}-report.json", d.demo.name);
+    Ok(json_response(d.report.to_json(), Some(&file)))
+}
+
+/// `GET /demo/{name}/sheet.toml`.
+pub async fn demo_sheet(
+    State(state): State<SharedState>,
+    Path(name): Path<String>,
+) -> Result<Response, ApiError> {
+    let d = state.demo(&name).ok_or(Error::NotFound)?;
+    Ok(toml_file(d.demo.text.to_string(), &format!("{}.toml", d.demo.name)))
+}
+
+fn toml_file(text: String, name: &str) -> Response {
+    let mut response = (
+        [(header::CONTENT_TYPE, HeaderValue::from_static("application/toml; charset=utf-8"))],
+        text,
+    )
+        .into_response();
+    set_attachment(&mut response, name);
+    response
+}
+
+/// `GET /sheet-template.toml`: the blank sheet.
+pub async fn sheet_template() -> Response {
+    toml_file(SHEET_TEMPLATE.to_string(), "claim-sheet.toml")
+}
+
+/// The form the verdict page posts to get its downloads.
+#[derive(Deserialize)]
+pub struct SheetForm {
+    sheet: String,
+}
+
+/// `POST /download/report.json`: the report of a posted sheet, as a file.
+pub async fn download_report(Form(form): Form<SheetForm>) -> Result<Response, ApiError> {
+    let report = report_of(&form.sheet, claim::sniff(&form.sheet))?;
+    Ok(json_response(report.to_json(), Some("liftaudit-report.json")))
+}
+
+/// `POST /download/sheet.toml`: the posted sheet back, as a file.
+pub async fn download_sheet(Form(form): Form<SheetForm>) -> Result<Response, ApiError> {
+    if form.sheet.trim().is_empty() {
+        return Err(Error::BadRequest("the sheet is empty".into()).into());
+    }
+    Ok(match claim::sniff(&form.sheet) {
+        Format::Toml => toml_file(form.sheet, "claim-sheet.toml"),
+        Format::Json => json_response(form.sheet, Some("claim-sheet.json")),
+    })
+}

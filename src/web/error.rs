@@ -1,0 +1,239 @@
+//! Every status code the service answers with is decided here.
+//!
+//! A sheet that is not TOML or JSON is the client's syntax error (400, RFC 9110
+//! section 15.5.1) and says where; a sheet that parses but is wrong is
+//! unprocessable content (422, RFC 9110 section 15.5.21) and names each field.
+//! Internal errors are logged with their cause and shown only as a generic
+//! page, so nothing about the server leaks to the client.
+
+use std::any::Any;
+
+use askama::Template;
+use axum::body::Body;
+use axum::http::{header, StatusCode};
+use axum::response::{Html, IntoResponse, Response};
+use axum::Json;
+use serde::Serialize;
+
+use crate::claim;
+
+use super::view;
+
+/// An error of an HTML page.
+#[derive(Debug)]
+pub enum Error {
+    /// The sheet was refused; the API answers with the field paths.
+    Sheet(claim::Error),
+    /// A request we cannot read (not UTF-8, a broken form): 400 with the reason.
+    BadRequest(String),
+    /// A content type the endpoint does not read.
+    UnsupportedMediaType(String),
+    /// A body over [`super::BODY_LIMIT`].
+    TooLarge,
+    NotFound,
+    /// Our fault: logged, never shown.
+    Internal(String),
+}
+
+impl Error {
+    pub fn internal(context: &str, cause: impl std::fmt::Display) -> Error {
+        Error::Internal(format!("{context}: {cause}"))
+    }
+
+    /// The error an extractor's rejection stands for: too large stays 413,
+    /// anything else is the client's malformed request.
+    pub fn from_status(status: StatusCode, message: String) -> Error {
+        if status == StatusCode::PAYLOAD_TOO_LARGE {
+            Error::TooLarge
+        } else {
+            Error::BadRequest(message)
+        }
+    }
+
+    pub fn status(&self) -> StatusCode {
+        match self {
+            Error::Sheet(claim::Error::Syntax { .. }) | Error::BadRequest(_) => {
+                StatusCode::BAD_REQUEST
+            }
+            Error::Sheet(claim::Error::Invalid(_)) => StatusCode::UNPROCESSABLE_ENTITY,
+            Error::UnsupportedMediaType(_) => StatusCode::UNSUPPORTED_MEDIA_TYPE,
+            Error::TooLarge => StatusCode::PAYLOAD_TOO_LARGE,
+            Error::NotFound => StatusCode::NOT_FOUND,
+            Error::Internal(_) => StatusCode::INTERNAL_SERVER_ERROR,
+        }
+    }
+
+    fn log(&self) {
+        if let Error::Internal(cause) = self {
+            tracing::error!(%cause, "internal error");
+        }
+    }
+
+    /// The message a person may read: the cause for client errors, a generic
+    /// line for ours.
+    pub fn public_message(&self) -> String {
+        match self {
+            Error::Sheet(e) => e.to_string(),
+            Error::BadRequest(m) | Error::UnsupportedMediaType(m) => m.clone(),
+            Error::TooLarge => format!(
+                "The request is larger than {} KiB, the most this service reads.",
+                super::BODY_LIMIT / 1024
+            ),
+            Error::NotFound => "There is no page at this address.".to_string(),
+            Error::Internal(_) => {
+                "Something went wrong on our side. The error has been logged; please try again."
+                    .to_string()
+            }
+        }
+    }
+}
+
+impl From<claim::Error> for Error {
+    fn from(e: claim::Error) -> Error {
+        Error::Sheet(e)
+    }
+}
+
+impl From<askama::Error> for Error {
+    fn from(e: askama::Error) -> Error {
+        Error::internal("template", e)
+    }
+}
+
+impl IntoResponse for Error {
+    fn into_response(self) -> Response {
+        self.log();
+        let status = self.status();
+        let page = view::ErrorPage::new(status, self.public_message());
+        match page.render() {
+            Ok(html) => (status, Html(html)).into_response(),
+            Err(e) => {
+                tracing::error!(error = %e, "error page does not render");
+                (status, "error").into_response()
+            }
+        }
+    }
+}
+
+/// The same errors, answered as JSON for `/api/...` and the downloads.
+#[derive(Debug)]
+pub struct ApiError(pub Error);
+
+impl<E: Into<Error>> From<E> for ApiError {
+    fn from(e: E) -> ApiError {
+        ApiError(e.into())
+    }
+}
+
+/// One entry of `{"errors": [...]}`: a field path for a refused field, a line
+/// and column for a syntax error.
+#[derive(Debug, Serialize)]
+pub struct ErrorEntry {
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub field: Option<String>,
+    pub message: String,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub line: Option<usize>,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub column: Option<usize>,
+}
+
+#[derive(Debug, Serialize)]
+pub struct ErrorBody {
+    pub errors: Vec<ErrorEntry>,
+}
+
+impl ErrorBody {
+    pub fn of(error: &Error) -> ErrorBody {
+        let message_only = |message: String| ErrorEntry {
+            field: None,
+            message,
+            line: None,
+            column: None,
+        };
+        let errors = match error {
+            Error::Sheet(claim::Error::Invalid(fields)) => fields
+                .iter()
+                .map(|f| ErrorEntry {
+                    field: Some(f.field.clone()),
+                    message: f.message.clone(),
+                    line: None,
+                    column: None,
+                })
+                .collect(),
+            Error::Sheet(claim::Error::Syntax {
+                format,
+                line,
+                column,
+                message,
+            }) => vec![ErrorEntry {
+                field: None,
+                message: format!("not valid {format}: {message}"),
+                line: Some(*line),
+                column: Some(*column),
+            }],
+            other => vec![message_only(other.public_message())],
+        };
+        ErrorBody { errors }
+    }
+}
+
+impl IntoResponse for ApiError {
+    fn into_response(self) -> Response {
+        self.0.log();
+        (self.0.status(), Json(ErrorBody::of(&self.0))).into_response()
+    }
+}
+
+/// The answer to a handler that panicked: logged, and a plain 500 that says
+/// nothing of the cause. Rules must not panic; this is the last guard.
+pub fn panic_response(cause: Box<dyn Any + Send + 'static>) -> Response<Body> {
+    let message = cause
+        .downcast_ref::<String>()
+        .map(String::as_str)
+        .or_else(|| cause.downcast_ref::<&str>().copied())
+        .unwrap_or("(no message)");
+    tracing::error!(panic = message, "a handler panicked");
+    let mut response = Response::new(Body::from(
+        "Something went wrong on our side. The error has been logged.",
+    ));
+    *response.status_mut() = StatusCode::INTERNAL_SERVER_ERROR;
+    response.headers_mut().insert(
+        header::CONTENT_TYPE,
+        header::HeaderValue::from_static("text/plain; charset=utf-8"),
+    );
+    response
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn a_refused_field_is_unprocessable_and_broken_syntax_is_a_bad_request() {
+        let invalid = Error::Sheet(claim::Error::Invalid(vec![claim::FieldError {
+            field: "craft.mass".into(),
+            message: "is required".into(),
+        }]));
+        assert_eq!(invalid.status(), StatusCode::UNPROCESSABLE_ENTITY);
+        let body = serde_json::to_value(ErrorBody::of(&invalid)).unwrap();
+        assert_eq!(body["errors"][0]["field"], "craft.mass");
+
+        let syntax = Error::Sheet(claim::Error::Syntax {
+            format: claim::Format::Json,
+            line: 3,
+            column: 7,
+            message: "expected value".into(),
+        });
+        assert_eq!(syntax.status(), StatusCode::BAD_REQUEST);
+        let body = serde_json::to_value(ErrorBody::of(&syntax)).unwrap();
+        assert_eq!((body["errors"][0]["line"].as_u64(), body["errors"][0]["column"].as_u64()), (Some(3), Some(7)));
+    }
+
+    #[test]
+    fn an_internal_error_never_shows_its_cause() {
+        let e = Error::internal("template", "secret path /etc/x");
+        assert_eq!(e.status(), StatusCode::INTERNAL_SERVER_ERROR);
+        assert!(!e.public_message().contains("secret"));
+    }
+}

@@ -1,0 +1,754 @@
+//! The verdict page's drawings, as inline SVG built on the server.
+//!
+//! Each builder reads the figures the rules put in the report (by the keys of
+//! DESIGN "Report v1") and draws them to scale with every quantity labelled in
+//! words, so that no drawing relies on colour. A figure the report lacks (a
+//! rule not assessed, a rule not yet written) leaves the drawing out with a
+//! note saying why, never a broken picture. Only numbers and fixed words go
+//! into the SVG; any text is escaped all the same.
+
+use std::fmt::Write as _;
+
+use crate::catalog::tiers::{self, Tier};
+use crate::claim::{Claim, Spin};
+use crate::report::{Finding, Report};
+
+use super::layout;
+use super::view::number;
+
+/// One drawing for the page, or the reason it is not drawn.
+#[derive(Debug, Clone)]
+pub struct Drawing {
+    /// Anchor and element id prefix.
+    pub id: &'static str,
+    pub title: &'static str,
+    /// What the drawing shows and its scale, in one or two sentences.
+    pub caption: String,
+    /// The SVG markup; `None` with the reason in `caption` when not drawn.
+    pub svg: Option<String>,
+}
+
+impl Drawing {
+    fn omitted(id: &'static str, title: &'static str, reason: &str) -> Drawing {
+        Drawing {
+            id,
+            title,
+            caption: format!("Not drawn: {reason}"),
+            svg: None,
+        }
+    }
+}
+
+/// Every drawing of a report, in page order.
+pub fn all(report: &Report, claim: &Claim) -> Vec<Drawing> {
+    vec![
+        free_body(report, claim),
+        thrust_bar(report),
+        energy_bar(report),
+        rotor_layout(claim),
+    ]
+}
+
+const INK: &str = "#1f2430";
+const THRUST: &str = "#0f5c63";
+const FORCE: &str = "#8a1c2b";
+const MUTED: &str = "#6b7080";
+const PAPER: &str = "#fbfaf6";
+const FILL_A: &str = "#9cc7c4";
+const FILL_B: &str = "#e3c58d";
+
+/// Escapes text for SVG (XML 1.0 section 2.4: `<` and `&` in text, quotes in attributes).
+pub fn esc(text: &str) -> String {
+    let mut out = String::with_capacity(text.len());
+    for c in text.chars() {
+        match c {
+            '<' => out.push_str("&lt;"),
+            '>' => out.push_str("&gt;"),
+            '&' => out.push_str("&amp;"),
+            '"' => out.push_str("&quot;"),
+            '\'' => out.push_str("&#39;"),
+            c => out.push(c),
+        }
+    }
+    out
+}
+
+/// A tiny SVG writer: shapes with presentation attributes only (no `style`),
+/// so the page's Content-Security-Policy holds and print keeps the colours.
+struct Svg {
+    width: f64,
+    height: f64,
+    body: String,
+}
+
+impl Svg {
+    fn new(width: f64, height: f64) -> Svg {
+        Svg {
+            width,
+            height,
+            body: String::new(),
+        }
+    }
+
+    fn line(&mut self, (x1, y1): (f64, f64), (x2, y2): (f64, f64), stroke: &str, w: f64, dash: bool) {
+        let dash = if dash { " stroke-dasharray=\"5 4\"" } else { "" };
+        let _ = write!(
+            self.body,
+            "<line x1=\"{x1:.1}\" y1=\"{y1:.1}\" x2=\"{x2:.1}\" y2=\"{y2:.1}\" stroke=\"{stroke}\" stroke-width=\"{w}\"{dash}/>"
+        );
+    }
+
+    /// A line with a filled head at its end.
+    fn arrow(&mut self, from: (f64, f64), to: (f64, f64), stroke: &str, w: f64, dash: bool) {
+        let (dx, dy) = (to.0 - from.0, to.1 - from.1);
+        let len = dx.hypot(dy);
+        if len < 1.0 {
+            return;
+        }
+        let (ux, uy) = (dx / len, dy / len);
+        let head = (3.5 * w + 4.0).min(len * 0.6);
+        let base = (to.0 - ux * head, to.1 - uy * head);
+        self.line(from, base, stroke, w, dash);
+        let half = head * 0.45;
+        let _ = write!(
+            self.body,
+            "<polygon points=\"{:.1},{:.1} {:.1},{:.1} {:.1},{:.1}\" fill=\"{stroke}\"/>",
+            to.0,
+            to.1,
+            base.0 - uy * half,
+            base.1 + ux * half,
+            base.0 + uy * half,
+            base.1 - ux * half
+        );
+    }
+
+    fn rect(&mut self, x: f64, y: f64, w: f64, h: f64, fill: &str, stroke: &str) {
+        let _ = write!(
+            self.body,
+            "<rect x=\"{x:.1}\" y=\"{y:.1}\" width=\"{:.1}\" height=\"{:.1}\" fill=\"{fill}\" stroke=\"{stroke}\"/>",
+            w.max(0.0),
+            h.max(0.0)
+        );
+    }
+
+    fn circle(&mut self, (cx, cy): (f64, f64), r: f64, fill: &str, stroke: &str, dash: bool) {
+        let dash = if dash { " stroke-dasharray=\"4 3\"" } else { "" };
+        let _ = write!(
+            self.body,
+            "<circle cx=\"{cx:.1}\" cy=\"{cy:.1}\" r=\"{r:.1}\" fill=\"{fill}\" stroke=\"{stroke}\" stroke-width=\"1.5\"{dash}/>"
+        );
+    }
+
+    fn path(&mut self, d: &str, stroke: &str, w: f64) {
+        let _ = write!(
+            self.body,
+            "<path d=\"{d}\" fill=\"none\" stroke=\"{stroke}\" stroke-width=\"{w}\"/>"
+        );
+    }
+
+    /// Text at a point; `anchor` is start, middle or end.
+    fn text(&mut self, (x, y): (f64, f64), anchor: &str, size: f64, fill: &str, text: &str) {
+        let _ = write!(
+            self.body,
+            "<text x=\"{x:.1}\" y=\"{y:.1}\" text-anchor=\"{anchor}\" font-size=\"{size}\" fill=\"{fill}\">{}</text>",
+            esc(text)
+        );
+    }
+
+    fn finish(self, id: &str, title: &str, desc: &str) -> String {
+        format!(
+            "<svg xmlns=\"http://www.w3.org/2000/svg\" class=\"drawing\" viewBox=\"0 0 {w} {h}\" \
+             width=\"{w}\" height=\"{h}\" role=\"img\" aria-labelledby=\"{id}-t {id}-d\" \
+             font-family=\"system-ui, sans-serif\">\
+             <title id=\"{id}-t\">{title}</title><desc id=\"{id}-d\">{desc}</desc>\
+             <rect width=\"{w}\" height=\"{h}\" fill=\"{PAPER}\"/>{body}</svg>",
+            w = self.width,
+            h = self.height,
+            title = esc(title),
+            desc = esc(desc),
+            body = self.body,
+        )
+    }
+}
+
+/// A positive, finite value of a figure.
+fn value(finding: Option<&Finding>, key: &str, tier: Option<Tier>) -> Option<f64> {
+    finding?
+        .figure(key, tier)
+        .map(|f| f.value)
+        .filter(|v| v.is_finite() && *v >= 0.0)
+}
+
+/// A round step for a scale bar or axis ticks: 1, 2 or 5 times a power of ten,
+/// about a fifth of `span`.
+fn nice_step(span: f64) -> f64 {
+    if !(span.is_finite() && span > 0.0) {
+        return 1.0;
+    }
+    let raw = span / 5.0;
+    let power = 10f64.powf(raw.log10().floor());
+    let m = raw / power;
+    let nice = if m < 1.5 {
+        1.0
+    } else if m < 3.5 {
+        2.0
+    } else if m < 7.5 {
+        5.0
+    } else {
+        10.0
+    };
+    nice * power
+}
+
+/// The geometry of the free-body diagram, in newtons, before scaling.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Forces {
+    pub tilt_deg: f64,
+    pub weight: f64,
+    pub thrust: f64,
+    /// Horizontal component of thrust: the force no one balances in still air.
+    pub unbalanced: f64,
+}
+
+impl Forces {
+    /// The forces of a steady tilted hover from the report: thrust balances
+    /// weight vertically, T cos(theta) = W, so T = W / cos(theta) and the
+    /// horizontal remainder is W tan(theta) (statics).
+    pub fn of(report: &Report, claim: &Claim) -> Option<Forces> {
+        let tilt = report.finding("tilt-equilibrium");
+        let tilt_deg = value(tilt, "hover_tilt", None)
+            .or_else(|| claim.claim.hover_tilt.map(|a| a.get::<uom::si::angle::degree>()))
+            .unwrap_or(0.0);
+        if tilt_deg >= 89.5 {
+            return None;
+        }
+        let cos = tilt_deg.to_radians().cos();
+        let weight = value(report.finding("thrust-margin"), "weight", None)
+            .or_else(|| value(tilt, "thrust_needed", None).map(|t| t * cos))
+            .filter(|w| *w > 0.0)?;
+        let thrust = value(tilt, "thrust_needed", None).unwrap_or(weight / cos);
+        let unbalanced =
+            value(tilt, "horizontal_force", None).unwrap_or(weight * tilt_deg.to_radians().tan());
+        Some(Forces {
+            tilt_deg,
+            weight,
+            thrust,
+            unbalanced,
+        })
+    }
+}
+
+/// Side view at the claimed attitude: weight, thrust along the tilted rotor
+/// axis, its vertical and horizontal components, and the unbalanced force.
+pub fn free_body(report: &Report, claim: &Claim) -> Drawing {
+    const ID: &str = "fig-forces";
+    const TITLE: &str = "Forces at the claimed attitude";
+    let Some(f) = Forces::of(report, claim) else {
+        return Drawing::omitted(ID, TITLE, "the report gives no weight for the craft.");
+    };
+    let (w, h) = (360.0, 300.0);
+    let centre = (150.0, 150.0);
+    let horizontal_room = 170.0;
+    let scale = (105.0 / f.weight).min(if f.unbalanced > 0.0 {
+        horizontal_room / f.unbalanced
+    } else {
+        f64::INFINITY
+    });
+    let theta = f.tilt_deg.to_radians();
+    let mut svg = Svg::new(w, h);
+
+    // Ground reference and the body, nose (forward, +x) to the right, pitched
+    // nose down by the tilt so that thrust leans forward.
+    svg.line((20.0, 285.0), (340.0, 285.0), MUTED, 1.0, false);
+    svg.text((22.0, 279.0), "start", 11.0, MUTED, "level ground; forward is to the right");
+    let half = 46.0;
+    let (bx, by) = (half * theta.cos(), half * theta.sin());
+    svg.line(
+        (centre.0 - bx, centre.1 - by),
+        (centre.0 + bx, centre.1 + by),
+        INK,
+        9.0,
+        false,
+    );
+    svg.circle(centre, 3.5, PAPER, INK, false);
+
+    let thrust_tip = (
+        centre.0 + f.thrust * scale * theta.sin(),
+        centre.1 - f.thrust * scale * theta.cos(),
+    );
+    let weight_tip = (centre.0, centre.1 + f.weight * scale);
+    let vertical_tip = (centre.0, centre.1 - f.weight * scale);
+    let horizontal_tip = (centre.0 + f.unbalanced * scale, centre.1);
+
+    svg.arrow(centre, weight_tip, INK, 2.5, false);
+    svg.text(
+        (centre.0 - 8.0, weight_tip.1 - 4.0),
+        "end",
+        12.0,
+        INK,
+        &format!("weight {} N", number(f.weight)),
+    );
+    if f.unbalanced > 0.0 {
+        svg.line(vertical_tip, thrust_tip, MUTED, 1.0, true);
+        svg.arrow(centre, vertical_tip, MUTED, 1.5, true);
+        svg.text(
+            (centre.0 - 8.0, vertical_tip.1 + 12.0),
+            "end",
+            11.0,
+            MUTED,
+            &format!("lift part {} N", number(f.weight)),
+        );
+        svg.arrow(centre, horizontal_tip, FORCE, 2.5, true);
+        svg.text(
+            (horizontal_tip.0.min(330.0), centre.1 + 18.0),
+            "end",
+            12.0,
+            FORCE,
+            &format!("unbalanced {} N", number(f.unbalanced)),
+        );
+    }
+    svg.arrow(centre, thrust_tip, THRUST, 3.0, false);
+    svg.text(
+        (thrust_tip.0 + 6.0, (thrust_tip.1 + 4.0).max(14.0)),
+        "start",
+        12.0,
+        THRUST,
+        &format!("thrust {} N", number(f.thrust)),
+    );
+    svg.text(
+        (centre.0 + 10.0, centre.1 - 22.0),
+        "start",
+        11.0,
+        INK,
+        &format!("tilt {} deg", number(f.tilt_deg)),
+    );
+
+    // Scale bar, bottom right.
+    let step = nice_step(f.weight * 1.5);
+    let bar = step * scale;
+    svg.line((330.0 - bar, 265.0), (330.0, 265.0), INK, 2.0, false);
+    svg.text((330.0, 258.0), "end", 11.0, INK, &format!("{} N", number(step)));
+
+    let caption = if f.unbalanced > 0.0 {
+        format!(
+            "Side view, to scale ({} N per bar). Tilted {} deg, the rotors must push {} N to carry the {} N weight, and the forward part of that push, {} N, has nothing to balance it in still air: the craft would accelerate forward.",
+            number(step),
+            number(f.tilt_deg),
+            number(f.thrust),
+            number(f.weight),
+            number(f.unbalanced)
+        )
+    } else {
+        format!(
+            "Side view, to scale ({} N per bar). Level, the rotors carry the {} N weight straight up; no force is left over.",
+            number(step),
+            number(f.weight)
+        )
+    };
+    Drawing {
+        id: ID,
+        title: TITLE,
+        svg: Some(svg.finish(ID, TITLE, &caption)),
+        caption,
+    }
+}
+
+/// Left edge and width of the bars in the bar charts.
+const BAR_X: f64 = 118.0;
+const BAR_W: f64 = 250.0;
+
+fn axis(svg: &mut Svg, max: f64, y: f64, unit: &str) {
+    let step = nice_step(max);
+    let mut v = 0.0;
+    while v <= max * 1.0001 {
+        let x = BAR_X + v / max * BAR_W;
+        svg.line((x, y), (x, y + 4.0), MUTED, 1.0, false);
+        svg.text((x, y + 15.0), "middle", 10.0, MUTED, &number(v));
+        v += step;
+    }
+    svg.line((BAR_X, y), (BAR_X + BAR_W, y), MUTED, 1.0, false);
+    svg.text((BAR_X + BAR_W, y + 28.0), "end", 10.0, MUTED, unit);
+}
+
+/// Available thrust at each tier against the weight, with the line a craft
+/// should hover below (common practice: 70 % of maximum thrust).
+pub fn thrust_bar(report: &Report) -> Drawing {
+    const ID: &str = "fig-thrust";
+    const TITLE: &str = "Thrust available and needed";
+    let finding = report.finding("thrust-margin");
+    let Some(weight) = value(finding, "weight", None).filter(|w| *w > 0.0) else {
+        return Drawing::omitted(ID, TITLE, "the thrust check gives no weight.");
+    };
+    let rows: Vec<(Tier, f64)> = Tier::ALL
+        .into_iter()
+        .filter_map(|t| value(finding, "thrust_available", Some(t)).map(|v| (t, v)))
+        .collect();
+    if rows.is_empty() {
+        return Drawing::omitted(ID, TITLE, "the thrust check gives no available thrust.");
+    }
+    let hover_share = tiers::HOVER_FRACTION_MAX.at(Tier::Typical);
+    let max = rows
+        .iter()
+        .map(|r| r.1)
+        .fold(weight, f64::max)
+        .max(weight / hover_share)
+        * 1.08;
+    let x_of = |v: f64| BAR_X + v / max * BAR_W;
+    let row_h = 46.0;
+    let top = 34.0;
+    let height = top + row_h * rows.len() as f64 + 40.0;
+    let mut svg = Svg::new(390.0, height);
+    svg.text(
+        (BAR_X, 16.0),
+        "start",
+        11.0,
+        INK,
+        "bar: thrust at full power; | hover at most here",
+    );
+    for (i, (tier, available)) in rows.iter().enumerate() {
+        let y = top + i as f64 * row_h;
+        svg.text((BAR_X - 8.0, y + 15.0), "end", 12.0, INK, tier.label());
+        svg.rect(BAR_X, y + 2.0, x_of(*available) - BAR_X, 18.0, FILL_A, THRUST);
+        let hover_x = x_of(available * hover_share);
+        svg.line((hover_x, y - 2.0), (hover_x, y + 24.0), INK, 2.0, false);
+        let label = format!(
+            "{} N; hover line {} N",
+            number(*available),
+            number(available * hover_share)
+        );
+        svg.text((BAR_X, y + 34.0), "start", 10.0, INK, &label);
+    }
+    let bottom = top + row_h * rows.len() as f64 - 6.0;
+    let wx = x_of(weight);
+    svg.line((wx, top - 8.0), (wx, bottom), FORCE, 2.0, true);
+    svg.text(
+        (wx.min(BAR_X + BAR_W - 4.0), top - 10.0),
+        "middle",
+        11.0,
+        FORCE,
+        &format!("weight {} N", number(weight)),
+    );
+    axis(&mut svg, max, bottom + 2.0, "newtons");
+    let caption = format!(
+        "Bars to scale: the thrust all rotors give at full power under each set of assumptions. The dashed line is the weight, {} N; the short solid mark on each bar is {} % of that bar, the most a craft should spend just to hover.",
+        number(weight),
+        number(hover_share * 100.0)
+    );
+    Drawing {
+        id: ID,
+        title: TITLE,
+        svg: Some(svg.finish(ID, TITLE, &caption)),
+        caption,
+    }
+}
+
+/// Energy the battery can give at each tier against the energy the claimed
+/// flight time needs at the hover power of that tier.
+pub fn energy_bar(report: &Report) -> Drawing {
+    const ID: &str = "fig-energy";
+    const TITLE: &str = "Energy stored and needed";
+    let finding = report.finding("energy-budget");
+    let claimed_min = value(finding, "claimed_flight_time", None);
+    let rows: Vec<(Tier, f64, Option<f64>)> = Tier::ALL
+        .into_iter()
+        .filter_map(|t| {
+            let stored = value(finding, "usable_energy", Some(t))?;
+            let needed = claimed_min
+                .zip(value(finding, "hover_power", Some(t)))
+                .map(|(min, watts)| watts * min / 60.0);
+            Some((t, stored, needed))
+        })
+        .collect();
+    if rows.is_empty() {
+        return Drawing::omitted(ID, TITLE, "the energy check gives no usable energy.");
+    }
+    let max = rows
+        .iter()
+        .flat_map(|r| [r.1, r.2.unwrap_or(0.0)])
+        .fold(0.0, f64::max)
+        * 1.08;
+    if !(max > 0.0 && max.is_finite()) {
+        return Drawing::omitted(ID, TITLE, "the energy figures are zero.");
+    }
+    let x_of = |v: f64| BAR_X + v / max * BAR_W;
+    let row_h = 58.0;
+    let top = 28.0;
+    let height = top + row_h * rows.len() as f64 + 36.0;
+    let mut svg = Svg::new(390.0, height);
+    svg.text(
+        (BAR_X, 14.0),
+        "start",
+        11.0,
+        INK,
+        "upper bar: stored, usable; lower bar: needed",
+    );
+    for (i, (tier, stored, needed)) in rows.iter().enumerate() {
+        let y = top + i as f64 * row_h;
+        svg.text((BAR_X - 8.0, y + 18.0), "end", 12.0, INK, tier.label());
+        svg.rect(BAR_X, y, x_of(*stored) - BAR_X, 14.0, FILL_A, THRUST);
+        svg.text(
+            (BAR_X + 3.0, y + 26.0),
+            "start",
+            10.0,
+            INK,
+            &format!("stored {} Wh", number(*stored)),
+        );
+        if let Some(needed) = needed {
+            svg.rect(BAR_X, y + 30.0, x_of(*needed) - BAR_X, 14.0, FILL_B, FORCE);
+            svg.text(
+                (BAR_X + 3.0, y + 55.0),
+                "start",
+                10.0,
+                INK,
+                &format!("needed {} Wh", number(*needed)),
+            );
+        }
+    }
+    axis(&mut svg, max, top + row_h * rows.len() as f64 - 2.0, "watt-hours");
+    let caption = match claimed_min {
+        Some(min) if rows.iter().any(|r| r.2.is_some()) => format!(
+            "Bars to scale: the battery's usable energy under each set of assumptions, and the energy hovering for the claimed {} min takes at that set's hover power.",
+            number(min)
+        ),
+        _ => "Bars to scale: the battery's usable energy under each set of assumptions. No flight time is claimed, so no energy needed is drawn.".to_string(),
+    };
+    Drawing {
+        id: ID,
+        title: TITLE,
+        svg: Some(svg.finish(ID, TITLE, &caption)),
+        caption,
+    }
+}
+
+/// Top view of the rotors: positions, disc size, spin senses and numbers.
+pub fn rotor_layout(claim: &Claim) -> Drawing {
+    const ID: &str = "fig-layout";
+    const TITLE: &str = "Rotor layout, seen from above";
+    let plan = layout::plan(&claim.rotors);
+    if plan.rotors.is_empty() {
+        return Drawing::omitted(ID, TITLE, "the sheet places no rotors.");
+    }
+    let reach = plan
+        .rotors
+        .iter()
+        .map(|r| r.x.abs().max(r.y.abs()))
+        .fold(0.0, f64::max);
+    // Disc radius: the stated size, else a third of the largest arm.
+    let radius_m = plan
+        .diameter
+        .map(|d| d / 2.0)
+        .unwrap_or(if reach > 0.0 { reach / 3.0 } else { 0.05 });
+    let extent = (reach + radius_m).max(1e-3);
+    let (w, h) = (320.0, 320.0);
+    let centre = (160.0, 165.0);
+    let scale = 115.0 / extent;
+    // Body x (forward) is up the page, body y (left) is left: a view from above.
+    let to_page = |x: f64, y: f64| (centre.0 - y * scale, centre.1 - x * scale);
+    let mut svg = Svg::new(w, h);
+
+    svg.arrow((centre.0, centre.1 - 14.0), (centre.0, 14.0), MUTED, 1.0, true);
+    svg.text((centre.0 + 6.0, 16.0), "start", 11.0, MUTED, "front");
+    let coaxial = plan.rotors.len() > 1
+        && plan
+            .rotors
+            .iter()
+            .all(|r| r.x.abs() < 1e-9 && r.y.abs() < 1e-9);
+    for r in &plan.rotors {
+        svg.line(centre, to_page(r.x, r.y), INK, 4.0, false);
+    }
+    svg.rect(centre.0 - 9.0, centre.1 - 9.0, 18.0, 18.0, INK, INK);
+    for (i, r) in plan.rotors.iter().enumerate() {
+        let c = to_page(r.x, r.y);
+        let shrink = if coaxial { 1.0 - 0.28 * i as f64 } else { 1.0 };
+        let rad = (radius_m * scale * shrink).max(6.0);
+        svg.circle(c, rad, "none", THRUST, plan.diameter.is_none());
+        spin_arrow(&mut svg, c, rad * 0.72, r.spin);
+        let spin = match r.spin {
+            Spin::Cw => "CW",
+            Spin::Ccw => "CCW",
+        };
+        let label = if coaxial {
+            format!("{} {} {spin}", i + 1, if i == 0 { "upper" } else { "lower" })
+        } else {
+            format!("{} {spin}", i + 1)
+        };
+        let at = if coaxial {
+            (centre.0 + rad + 4.0, c.1 - rad + 12.0 + 14.0 * i as f64)
+        } else {
+            (c.0, c.1 + 4.0)
+        };
+        let anchor = if coaxial { "start" } else { "middle" };
+        svg.text(at, anchor, 11.0, INK, &label);
+    }
+    let step_m = nice_step(extent * 2.0);
+    let bar = step_m * scale;
+    svg.line((300.0 - bar, 305.0), (300.0, 305.0), INK, 2.0, false);
+    let step_label = format!("{} mm", number(step_m * 1000.0));
+    svg.text((300.0, 298.0), "end", 11.0, INK, &step_label);
+
+    let mut caption = format!(
+        "Top view, to scale ({step_label} per bar), front up: {} rotor{}, numbered from the nose clockwise, each marked with its spin as seen from above.",
+        plan.rotors.len(),
+        if plan.rotors.len() == 1 { "" } else { "s" }
+    );
+    if plan.arm_assumed {
+        caption.push_str(" The sheet gives no arm length, so positions are drawn to a 100 mm arm.");
+    }
+    if plan.diameter.is_none() {
+        caption.push_str(" The sheet gives no rotor diameter; dashed discs are not to scale.");
+    }
+    if claim.rotors.spins.is_none() && claim.rotors.at.is_empty() {
+        caption.push_str(" Spins are not stated; the usual alternating pattern is drawn.");
+    }
+    Drawing {
+        id: ID,
+        title: TITLE,
+        svg: Some(svg.finish(ID, TITLE, &caption)),
+        caption,
+    }
+}
+
+/// A three-quarter arc with an arrowhead, turning the way the rotor spins on
+/// the page (which is the view from above).
+fn spin_arrow(svg: &mut Svg, (cx, cy): (f64, f64), r: f64, spin: Spin) {
+    // Page y grows downward, so increasing page angle turns clockwise on screen.
+    let sweep_cw = spin == Spin::Cw;
+    let (a0, a1) = if sweep_cw {
+        (200f64, 470f64)
+    } else {
+        (340f64, 70f64)
+    };
+    let point = |deg: f64| {
+        let t = deg.to_radians();
+        (cx + r * t.cos(), cy + r * t.sin())
+    };
+    let (s, e) = (point(a0), point(a1));
+    let sweep_flag = if sweep_cw { 1 } else { 0 };
+    svg.path(
+        &format!(
+            "M {:.1} {:.1} A {r:.1} {r:.1} 0 1 {sweep_flag} {:.1} {:.1}",
+            s.0, s.1, e.0, e.1
+        ),
+        THRUST,
+        1.5,
+    );
+    // Head tangent to the arc at its end, pointing along the turn.
+    let t = a1.to_radians();
+    let dir = if sweep_cw { 1.0 } else { -1.0 };
+    let tangent = (-t.sin() * dir, t.cos() * dir);
+    svg.arrow(
+        (e.0 - tangent.0 * 6.0, e.1 - tangent.1 * 6.0),
+        (e.0 + tangent.0 * 2.0, e.1 + tangent.1 * 2.0),
+        THRUST,
+        1.5,
+        false,
+    );
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::claim::{self, Format};
+    use crate::report::{Figure, Finding, Verdict};
+
+    fn sheet(extra: &str) -> Claim {
+        let text = format!(
+            "title = \"t\"\n[craft]\nmass = \"300 g\"\n[rotors]\nlayout = \"quad-x\"\narm = \"80 mm\"\ndiameter = \"76 mm\"\n{extra}"
+        );
+        claim::parse(&text, Format::Toml).unwrap()
+    }
+
+    fn finding(rule: &'static str, figures: Vec<Figure>) -> Finding {
+        Finding {
+            rule,
+            verdict: Verdict::Consistent,
+            headline: String::new(),
+            figures,
+            would_take: String::new(),
+            assumptions: Vec::new(),
+            sources: Vec::new(),
+        }
+    }
+
+    fn fig(key: &'static str, tier: Option<Tier>, value: f64) -> Figure {
+        Figure {
+            key,
+            label: key.into(),
+            tier,
+            value,
+            unit: "N",
+        }
+    }
+
+    #[test]
+    fn a_thirty_degree_hover_leaves_weight_times_tan_thirty_unbalanced() {
+        // Statics (DESIGN check values): a tilted rigid thrust vector gives a
+        // horizontal force W tan(theta); at 30 deg, tan = 0.5774 (g tan = 5.66 m/s^2).
+        let report = Report::new(
+            "t".into(),
+            vec![finding("thrust-margin", vec![fig("weight", None, 10.0)])],
+        );
+        let claim = sheet("[claim]\nhover_tilt = \"30 deg\"");
+        let f = Forces::of(&report, &claim).unwrap();
+        assert!((f.unbalanced - 5.7735).abs() < 1e-3, "{f:?}");
+        assert!((f.thrust - 11.547).abs() < 1e-3, "{f:?}");
+        let drawing = free_body(&report, &claim);
+        let svg = drawing.svg.unwrap();
+        assert!(svg.contains("unbalanced 5.77 N"), "{svg}");
+        assert!(svg.contains("thrust 11.5 N"));
+    }
+
+    #[test]
+    fn every_drawing_is_left_out_with_a_reason_when_the_report_is_empty() {
+        let report = Report::new("t".into(), Vec::new());
+        let claim = sheet("");
+        let drawings = all(&report, &claim);
+        let missing: Vec<&str> = drawings.iter().filter(|d| d.svg.is_none()).map(|d| d.id).collect();
+        assert_eq!(missing, ["fig-forces", "fig-thrust", "fig-energy"]);
+        assert!(drawings.iter().all(|d| !d.caption.is_empty()));
+        // The layout comes from the sheet alone.
+        assert!(drawings[3].svg.as_ref().unwrap().contains("4 CCW"));
+    }
+
+    #[test]
+    fn thrust_bars_are_drawn_to_one_scale() {
+        let report = Report::new(
+            "t".into(),
+            vec![finding(
+                "thrust-margin",
+                vec![
+                    fig("weight", None, 3.0),
+                    fig("thrust_available", Some(Tier::PhysicalLimit), 8.0),
+                    fig("thrust_available", Some(Tier::Typical), 4.0),
+                ],
+            )],
+        );
+        let svg = thrust_bar(&report).svg.unwrap();
+        let widths: Vec<f64> = svg
+            .split("<rect ")
+            .skip(2)
+            .filter_map(|r| r.split("width=\"").nth(1)?.split('"').next()?.parse().ok())
+            .collect();
+        assert_eq!(widths.len(), 2, "{svg}");
+        assert!((widths[0] / widths[1] - 2.0).abs() < 0.02, "{widths:?}");
+        assert!(svg.contains("weight 3.00 N"));
+    }
+
+    #[test]
+    fn energy_needed_is_hover_power_times_the_claimed_time() {
+        // Energy = power x time: 6 W for 15 min is 1.5 Wh.
+        let mut e = vec![fig("claimed_flight_time", None, 15.0)];
+        for t in Tier::ALL {
+            e.push(fig("usable_energy", Some(t), 2.0));
+            e.push(fig("hover_power", Some(t), 6.0));
+        }
+        let report = Report::new("t".into(), vec![finding("energy-budget", e)]);
+        let svg = energy_bar(&report).svg.unwrap();
+        assert!(svg.contains("needed 1.50 Wh"), "{svg}");
+    }
+
+    #[test]
+    fn svg_text_is_escaped() {
+        assert_eq!(esc("<a href=\"x\">&'"), "&lt;a href=&quot;x&quot;&gt;&amp;&#39;");
+    }
+}

@@ -1,0 +1,214 @@
+//! The web service: the claim form, the verdict page, the JSON API and the
+//! methods page.
+//!
+//! The layer only parses, calls [`rules::run_all`] and renders; it holds no
+//! physics. Pages are askama templates fed by the view models in [`view`];
+//! figures are SVG drawn on the server ([`figures`]) so the page works without
+//! JavaScript and prints as it shows. Every status code is decided in
+//! [`error`]; handlers use `?`.
+
+mod api;
+mod assets;
+pub mod error;
+pub mod figures;
+pub mod form;
+pub mod layout;
+mod pages;
+pub mod view;
+
+use std::net::SocketAddr;
+use std::sync::Arc;
+use std::time::Duration;
+
+use axum::extract::DefaultBodyLimit;
+use axum::http::{header, HeaderName, HeaderValue, StatusCode};
+use axum::routing::{get, post};
+use axum::Router;
+use tower::limit::GlobalConcurrencyLimitLayer;
+use tower::ServiceBuilder;
+use tower_http::catch_panic::CatchPanicLayer;
+use tower_http::limit::RequestBodyLimitLayer;
+use tower_http::set_header::SetResponseHeaderLayer;
+use tower_http::timeout::TimeoutLayer;
+use tower_http::trace::{DefaultMakeSpan, DefaultOnResponse, TraceLayer};
+use tracing::Level;
+
+use crate::claim::{self, demo, Claim};
+use crate::report::Report;
+use crate::rules;
+
+/// Bodies above this are refused with 413 before they are read (issue 3).
+pub const BODY_LIMIT: usize = 1024 * 1024;
+
+/// Content-Security-Policy: scripts and styles only from our own files, never
+/// inline (CSP Level 3); no framing (`frame-ancestors`, which supersedes
+/// X-Frame-Options); forms post only to us.
+pub const CSP: &str = "default-src 'none'; script-src 'self'; style-src 'self'; img-src 'self' data:; \
+     font-src 'self'; connect-src 'self'; form-action 'self'; base-uri 'none'; frame-ancestors 'none'";
+
+/// Tunables of the service; [`Config::default`] is what `liftaudit serve` uses.
+#[derive(Debug, Clone)]
+pub struct Config {
+    /// Longest a request may take before it is answered 408.
+    pub request_timeout: Duration,
+    /// Requests handled at once; more wait their turn.
+    pub max_concurrent: usize,
+}
+
+impl Default for Config {
+    fn default() -> Config {
+        Config {
+            request_timeout: Duration::from_secs(10),
+            max_concurrent: 64,
+        }
+    }
+}
+
+/// A demo claim read and checked once at start-up.
+pub struct LoadedDemo {
+    pub demo: &'static demo::Demo,
+    pub claim: Claim,
+    pub report: Report,
+}
+
+/// What every handler shares: the demos, ready to show.
+pub struct AppState {
+    pub demos: Vec<LoadedDemo>,
+}
+
+impl AppState {
+    /// Reads and checks every built-in demo. A demo that does not parse is
+    /// logged and left out rather than stopping the service; a unit test
+    /// keeps all of them parsing.
+    pub fn load() -> AppState {
+        let demos = demo::DEMOS
+            .iter()
+            .filter_map(|d| match claim::parse(d.text, claim::Format::Toml) {
+                Ok(claim) => {
+                    let report = rules::run_all(&claim);
+                    Some(LoadedDemo {
+                        demo: d,
+                        claim,
+                        report,
+                    })
+                }
+                Err(e) => {
+                    tracing::error!(demo = d.name, error = %e, "demo sheet does not parse");
+                    None
+                }
+            })
+            .collect();
+        AppState { demos }
+    }
+
+    pub fn demo(&self, name: &str) -> Option<&LoadedDemo> {
+        self.demos.iter().find(|d| d.demo.name == name)
+    }
+}
+
+pub type SharedState = Arc<AppState>;
+
+/// The whole service as a router, with its security and resource layers.
+pub fn app(config: Config) -> Router {
+    let state: SharedState = Arc::new(AppState::load());
+    tracing::info!(demos = state.demos.len(), "demo claims loaded");
+
+    let routes = Router::new()
+        .route("/", get(pages::index))
+        .route("/check", post(pages::check))
+        .route("/demo/{name}", get(pages::demo))
+        .route("/demo/{name}/report.json", get(api::demo_report))
+        .route("/demo/{name}/sheet.toml", get(api::demo_sheet))
+        .route("/download/report.json", post(api::download_report))
+        .route("/download/sheet.toml", post(api::download_sheet))
+        .route("/sheet-template.toml", get(api::sheet_template))
+        .route("/methods", get(pages::methods))
+        .route("/api/v1/check", post(api::check))
+        .route("/api/v1/catalog", get(api::catalog))
+        .route("/healthz", get(api::healthz))
+        .route("/static/{file}", get(assets::serve))
+        .fallback(pages::not_found)
+        .with_state(state);
+
+    let headers = ServiceBuilder::new()
+        .layer(SetResponseHeaderLayer::overriding(
+            header::CONTENT_SECURITY_POLICY,
+            HeaderValue::from_static(CSP),
+        ))
+        .layer(SetResponseHeaderLayer::overriding(
+            header::X_CONTENT_TYPE_OPTIONS,
+            HeaderValue::from_static("nosniff"),
+        ))
+        .layer(SetResponseHeaderLayer::overriding(
+            header::REFERRER_POLICY,
+            HeaderValue::from_static("no-referrer"),
+        ))
+        .layer(SetResponseHeaderLayer::overriding(
+            header::X_FRAME_OPTIONS,
+            HeaderValue::from_static("DENY"),
+        ))
+        .layer(SetResponseHeaderLayer::if_not_present(
+            HeaderName::from_static("permissions-policy"),
+            HeaderValue::from_static("camera=(), microphone=(), geolocation=()"),
+        ));
+
+    routes.layer(
+        ServiceBuilder::new()
+            .layer(
+                TraceLayer::new_for_http()
+                    .make_span_with(DefaultMakeSpan::new().level(Level::INFO))
+                    .on_request(())
+                    .on_response(DefaultOnResponse::new().level(Level::INFO)),
+            )
+            .layer(headers)
+            .layer(RequestBodyLimitLayer::new(BODY_LIMIT))
+            .layer(CatchPanicLayer::custom(error::panic_response))
+            .layer(TimeoutLayer::with_status_code(
+                StatusCode::REQUEST_TIMEOUT,
+                config.request_timeout,
+            ))
+            .layer(GlobalConcurrencyLimitLayer::new(config.max_concurrent))
+            .layer(DefaultBodyLimit::max(BODY_LIMIT)),
+    )
+}
+
+/// Runs the service on `addr` until Ctrl-C or SIGTERM, then finishes the
+/// requests in flight.
+pub async fn serve(addr: SocketAddr, config: Config) -> std::io::Result<()> {
+    let listener = tokio::net::TcpListener::bind(addr).await?;
+    let local = listener.local_addr()?;
+    let router = app(config);
+    tracing::info!("liftaudit listening on http://{local}/");
+    axum::serve(listener, router)
+        .with_graceful_shutdown(shutdown_signal())
+        .await
+}
+
+async fn shutdown_signal() {
+    let ctrl_c = async {
+        if let Err(e) = tokio::signal::ctrl_c().await {
+            tracing::error!(error = %e, "cannot listen for Ctrl-C");
+            std::future::pending::<()>().await;
+        }
+    };
+    #[cfg(unix)]
+    let terminate = async {
+        use tokio::signal::unix::{signal, SignalKind};
+        match signal(SignalKind::terminate()) {
+            Ok(mut s) => {
+                s.recv().await;
+            }
+            Err(e) => {
+                tracing::error!(error = %e, "cannot listen for SIGTERM");
+                std::future::pending::<()>().await;
+            }
+        }
+    };
+    #[cfg(not(unix))]
+    let terminate = std::future::pending::<()>();
+    tokio::select! {
+        () = ctrl_c => {},
+        () = terminate => {},
+    }
+    tracing::info!("shutting down: finishing requests in flight");
+}

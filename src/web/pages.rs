@@ -1,0 +1,214 @@
+//! The HTML pages: the form, the verdict, the methods, not found.
+
+use std::collections::HashMap;
+
+use askama::Template;
+use axum::extract::{FromRequest, Multipart, Path, Query, Request, State};
+use axum::http::{header, StatusCode, Uri};
+use axum::response::{Html, IntoResponse, Response};
+use axum::Form;
+
+use crate::claim;
+use crate::rules;
+
+use super::error::{ApiError, Error};
+use super::form::{self, FormView};
+use super::view::{DemoLink, Downloads, IndexPage, MethodsPage, VerdictPage};
+use super::SharedState;
+
+fn index_page(state: &SharedState, form: FormView, picked: Option<&'static str>) -> IndexPage {
+    IndexPage {
+        form,
+        demos: state.demos.iter().map(DemoLink::of).collect(),
+        picked,
+    }
+}
+
+/// `GET /`: the claim form; `?demo=name` puts a demo's sheet in the sheet box.
+pub async fn index(
+    State(state): State<SharedState>,
+    Query(query): Query<HashMap<String, String>>,
+) -> Result<Html<String>, Error> {
+    let (sheet, picked) = match query.get("demo") {
+        Some(name) => {
+            let d = state.demo(name).ok_or(Error::NotFound)?;
+            (d.demo.text.to_string(), Some(d.demo.name))
+        }
+        None => (String::new(), None),
+    };
+    let page = index_page(&state, FormView::with_sheet(sheet), picked);
+    Ok(Html(page.render()?))
+}
+
+/// What the form sends: the pressed button (`from`), the sheet box or upload,
+/// and the fields.
+pub struct Submission {
+    pub from: Option<String>,
+    pub sheet: String,
+    pub fields: HashMap<String, String>,
+}
+
+impl<S: Send + Sync> FromRequest<S> for Submission {
+    type Rejection = Error;
+
+    /// Reads either encoding a browser sends: multipart (the form, which can
+    /// upload a file) or urlencoded (a form without the upload, or curl).
+    async fn from_request(req: Request, state: &S) -> Result<Submission, Error> {
+        let multipart = req
+            .headers()
+            .get(header::CONTENT_TYPE)
+            .and_then(|v| v.to_str().ok())
+            .is_some_and(|v| v.starts_with("multipart/form-data"));
+        let mut sub = Submission {
+            from: None,
+            sheet: String::new(),
+            fields: HashMap::new(),
+        };
+        if multipart {
+            let mut parts = Multipart::from_request(req, state)
+                .await
+                .map_err(|e| Error::from_status(e.status(), e.body_text()))?;
+            let mut uploaded: Option<String> = None;
+            while let Some(part) = parts
+                .next_field()
+                .await
+                .map_err(|e| Error::from_status(e.status(), e.body_text()))?
+            {
+                let name = part.name().unwrap_or("").to_string();
+                let is_file = part.file_name().is_some();
+                let bytes = part
+                    .bytes()
+                    .await
+                    .map_err(|e| Error::from_status(e.status(), e.body_text()))?;
+                let text = String::from_utf8(bytes.to_vec()).map_err(|_| {
+                    Error::BadRequest(format!("the field '{name}' is not UTF-8 text"))
+                })?;
+                match name.as_str() {
+                    "sheet" if is_file => {
+                        if !text.trim().is_empty() {
+                            uploaded = Some(text);
+                        }
+                    }
+                    "sheet" => sub.sheet = text,
+                    "from" => sub.from = Some(text),
+                    _ => {
+                        sub.fields.insert(name, text);
+                    }
+                }
+            }
+            if let Some(text) = uploaded {
+                sub.sheet = text;
+            }
+        } else {
+            let Form(pairs) = Form::<Vec<(String, String)>>::from_request(req, state)
+                .await
+                .map_err(|e| Error::from_status(e.status(), e.body_text()))?;
+            for (name, value) in pairs {
+                match name.as_str() {
+                    "sheet" => sub.sheet = value,
+                    "from" => sub.from = Some(value),
+                    _ => {
+                        sub.fields.insert(name, value);
+                    }
+                }
+            }
+        }
+        Ok(sub)
+    }
+}
+
+/// `POST /check`: the verdict page for the sheet, or the form again with
+/// the input kept and every error beside what it is about.
+pub async fn check(State(state): State<SharedState>, sub: Submission) -> Result<Response, Error> {
+    // Enter in a text input presses the first button (`from=sheet`), so an
+    // empty sheet box with filled fields means the fields.
+    let fields_filled = sub.fields.values().any(|v| !v.trim().is_empty());
+    let use_fields = sub.from.as_deref() == Some("fields")
+        || (sub.sheet.trim().is_empty() && fields_filled);
+    if use_fields {
+        let refused = |errors: &[claim::FieldError], status| -> Result<Response, Error> {
+            let page = index_page(&state, FormView::fields_refused(&sub.fields, errors), None);
+            Ok((status, Html(page.render()?)).into_response())
+        };
+        let sheet = match form::sheet_from_fields(&sub.fields) {
+            Ok(sheet) => sheet,
+            Err(errors) => return refused(&errors, StatusCode::UNPROCESSABLE_ENTITY),
+        };
+        return match claim::parse(&sheet, claim::Format::Toml) {
+            Ok(c) => verdict(&rules::run_all(&c), &c, Downloads { demo: None, sheet }),
+            Err(claim::Error::Invalid(errors)) => {
+                refused(&errors, StatusCode::UNPROCESSABLE_ENTITY)
+            }
+            Err(e) => Err(Error::internal("the form made a sheet that is not TOML", e)),
+        };
+    }
+    if sub.sheet.trim().is_empty() {
+        let form = FormView::sheet_refused(
+            String::new(),
+            vec!["The sheet is empty: paste a claim sheet, upload one, or fill in the fields below and use their button.".into()],
+        );
+        let page = index_page(&state, form, None);
+        return Ok((StatusCode::UNPROCESSABLE_ENTITY, Html(page.render()?)).into_response());
+    }
+    match claim::parse_any(&sub.sheet) {
+        Ok(c) => {
+            let report = rules::run_all(&c);
+            verdict(
+                &report,
+                &c,
+                Downloads {
+                    demo: None,
+                    sheet: sub.sheet,
+                },
+            )
+        }
+        Err(e) => {
+            let status = Error::Sheet(e.clone()).status();
+            let errors = match e {
+                claim::Error::Invalid(fields) => fields.iter().map(|f| f.to_string()).collect(),
+                syntax => vec![syntax.to_string()],
+            };
+            let page = index_page(&state, FormView::sheet_refused(sub.sheet, errors), None);
+            Ok((status, Html(page.render()?)).into_response())
+        }
+    }
+}
+
+fn verdict(
+    report: &crate::report::Report,
+    claim: &claim::Claim,
+    downloads: Downloads,
+) -> Result<Response, Error> {
+    let page = VerdictPage::new(report, claim, downloads);
+    Ok(Html(page.render()?).into_response())
+}
+
+/// `GET /demo/{name}`: a demo's verdict page, checked at start-up.
+pub async fn demo(
+    State(state): State<SharedState>,
+    Path(name): Path<String>,
+) -> Result<Response, Error> {
+    let d = state.demo(&name).ok_or(Error::NotFound)?;
+    verdict(
+        &d.report,
+        &d.claim,
+        Downloads {
+            demo: Some(d.demo.name),
+            sheet: d.demo.text.to_string(),
+        },
+    )
+}
+
+/// `GET /methods`: rules, tier table, sources.
+pub async fn methods() -> Result<Html<String>, Error> {
+    Ok(Html(MethodsPage::new().render()?))
+}
+
+/// Anything else: a real 404, as JSON under `/api/`.
+pub async fn not_found(uri: Uri) -> Response {
+    if uri.path().starts_with("/api/") {
+        ApiError(Error::NotFound).into_response()
+    } else {
+        Error::NotFound.into_response()
+    }
+}

@@ -1,0 +1,427 @@
+//! View models: everything a template shows, already in words and rounded
+//! numbers, so templates hold no logic beyond loops and conditions. Askama
+//! escapes every field for HTML; only the server-built SVG in
+//! [`super::figures`] and the fixed icons below are inserted unescaped.
+
+use askama::Template;
+use axum::http::StatusCode;
+
+use crate::catalog::tiers::{self, Tier};
+use crate::claim::Claim;
+use crate::report::{Figure, Finding, Report, Verdict};
+use crate::rules;
+use crate::sources::{self, Source};
+
+use super::figures::{self, Drawing};
+use super::form::FormView;
+use super::LoadedDemo;
+
+/// A number for people: three significant figures, no exponent.
+pub fn number(v: f64) -> String {
+    if !v.is_finite() {
+        return if v.is_nan() {
+            "n/a".into()
+        } else if v > 0.0 {
+            "unbounded".into()
+        } else {
+            "-unbounded".into()
+        };
+    }
+    if v == 0.0 {
+        return "0".into();
+    }
+    let digits = 2 - v.abs().log10().floor() as i32;
+    if digits <= 0 {
+        format!("{v:.0}")
+    } else {
+        format!("{v:.*}", digits.min(12) as usize)
+    }
+}
+
+/// A figure's value: counts as whole numbers, everything else by [`number`].
+fn figure_value(f: &Figure) -> String {
+    if f.unit == "1" && f.value.is_finite() && f.value.fract() == 0.0 && f.value.abs() < 1e9 {
+        format!("{}", f.value as i64)
+    } else {
+        number(f.value)
+    }
+}
+
+/// A unit as the table prints it; a pure number is marked as a ratio.
+fn unit_label(unit: &str) -> &str {
+    match unit {
+        "1" | "" => "ratio",
+        u => u,
+    }
+}
+
+/// A verdict in words, with its icon: shapes differ by verdict so that
+/// nothing depends on telling colours apart.
+#[derive(Debug, Clone)]
+pub struct VerdictView {
+    pub id: &'static str,
+    pub label: &'static str,
+    pub meaning: &'static str,
+    pub icon: &'static str,
+}
+
+impl VerdictView {
+    pub fn of(v: Verdict) -> VerdictView {
+        VerdictView {
+            id: v.id(),
+            label: v.label(),
+            meaning: v.meaning(),
+            icon: icon(v),
+        }
+    }
+}
+
+/// Inline icons, `aria-hidden` because the label beside them says the same.
+fn icon(v: Verdict) -> &'static str {
+    match v {
+        Verdict::Impossible => concat!(
+            r##"<svg class="icon" viewBox="0 0 24 24" width="24" height="24" aria-hidden="true" focusable="false">"##,
+            r##"<polygon points="7,1 17,1 23,7 23,17 17,23 7,23 1,17 1,7" fill="currentColor"/>"##,
+            r##"<path d="M8 8 L16 16 M16 8 L8 16" stroke="#fff" stroke-width="2.6" stroke-linecap="round"/></svg>"##
+        ),
+        Verdict::Implausible => concat!(
+            r##"<svg class="icon" viewBox="0 0 24 24" width="24" height="24" aria-hidden="true" focusable="false">"##,
+            r##"<polygon points="12,1.5 23,22 1,22" fill="currentColor"/>"##,
+            r##"<path d="M12 8.5 V15" stroke="#fff" stroke-width="2.6" stroke-linecap="round"/>"##,
+            r##"<circle cx="12" cy="18.6" r="1.5" fill="#fff"/></svg>"##
+        ),
+        Verdict::Doubtful => concat!(
+            r##"<svg class="icon" viewBox="0 0 24 24" width="24" height="24" aria-hidden="true" focusable="false">"##,
+            r##"<rect x="2" y="2" width="20" height="20" rx="4" transform="rotate(45 12 12)" fill="currentColor"/>"##,
+            r##"<path d="M9.2 9.3 a2.9 2.9 0 1 1 4 2.7 c-0.9 0.4 -1.2 1 -1.2 2" fill="none" stroke="#fff" stroke-width="2.2" stroke-linecap="round"/>"##,
+            r##"<circle cx="12" cy="17.2" r="1.4" fill="#fff"/></svg>"##
+        ),
+        Verdict::Consistent => concat!(
+            r##"<svg class="icon" viewBox="0 0 24 24" width="24" height="24" aria-hidden="true" focusable="false">"##,
+            r##"<circle cx="12" cy="12" r="11" fill="currentColor"/>"##,
+            r##"<path d="M6.5 12.5 L10.3 16.2 L17.5 8.3" fill="none" stroke="#fff" stroke-width="2.6" stroke-linecap="round" stroke-linejoin="round"/></svg>"##
+        ),
+        Verdict::NotAssessed => concat!(
+            r##"<svg class="icon" viewBox="0 0 24 24" width="24" height="24" aria-hidden="true" focusable="false">"##,
+            r##"<circle cx="12" cy="12" r="10" fill="none" stroke="currentColor" stroke-width="2.2" stroke-dasharray="3.2 2.4"/>"##,
+            r##"<path d="M7.5 12 H16.5" stroke="currentColor" stroke-width="2.6" stroke-linecap="round"/></svg>"##
+        ),
+    }
+}
+
+/// The title of a rule by id, from the registry.
+fn rule_title(id: &str) -> &str {
+    rules::REGISTRY
+        .iter()
+        .find(|r| r.id == id)
+        .map(|r| r.title)
+        .unwrap_or(id)
+}
+
+/// One row of a finding's table: a quantity across the tiers, or one value
+/// for a quantity that does not depend on them.
+#[derive(Debug, Clone)]
+pub struct FigureRow {
+    pub key: &'static str,
+    pub label: String,
+    pub unit: String,
+    /// Values at physical limit, best practice, typical; "-" where missing.
+    pub by_tier: Vec<String>,
+    /// The value of a tier-independent figure.
+    pub fixed: Option<String>,
+}
+
+/// Groups a finding's figures by key, keeping the order the rule gave.
+pub fn figure_rows(figures: &[Figure]) -> Vec<FigureRow> {
+    let mut rows: Vec<FigureRow> = Vec::new();
+    for f in figures {
+        let at = rows.iter().position(|r| r.key == f.key);
+        let row = match at {
+            Some(i) => &mut rows[i],
+            None => {
+                rows.push(FigureRow {
+                    key: f.key,
+                    label: f.label.clone(),
+                    unit: unit_label(f.unit).to_string(),
+                    by_tier: vec!["-".to_string(); Tier::ALL.len()],
+                    fixed: None,
+                });
+                rows.last_mut().expect("just pushed")
+            }
+        };
+        match f.tier {
+            Some(t) => {
+                if let Some(i) = Tier::ALL.iter().position(|x| *x == t) {
+                    row.by_tier[i] = figure_value(f);
+                }
+            }
+            None => row.fixed = Some(figure_value(f)),
+        }
+    }
+    rows
+}
+
+#[derive(Debug, Clone)]
+pub struct SourceLink {
+    pub id: &'static str,
+    pub title: &'static str,
+}
+
+#[derive(Debug, Clone)]
+pub struct FindingView {
+    pub rule: &'static str,
+    pub rule_title: String,
+    pub verdict: VerdictView,
+    pub headline: String,
+    pub rows: Vec<FigureRow>,
+    pub would_take: String,
+    pub assumptions: Vec<String>,
+    pub sources: Vec<SourceLink>,
+}
+
+impl FindingView {
+    pub fn of(f: &Finding) -> FindingView {
+        FindingView {
+            rule: f.rule,
+            rule_title: rule_title(f.rule).to_string(),
+            verdict: VerdictView::of(f.verdict),
+            headline: f.headline.clone(),
+            rows: figure_rows(&f.figures),
+            would_take: f.would_take.clone(),
+            assumptions: f.assumptions.clone(),
+            sources: f
+                .sources
+                .iter()
+                .map(|id| SourceLink {
+                    id,
+                    title: sources::get(id).map(|s| s.title).unwrap_or(id),
+                })
+                .collect(),
+        }
+    }
+}
+
+/// How the page offers its report and sheet for download: plain links for a
+/// demo, small forms that post the sheet back for a submitted one (the
+/// service keeps nothing between requests).
+#[derive(Debug, Clone)]
+pub struct Downloads {
+    pub demo: Option<&'static str>,
+    pub sheet: String,
+}
+
+/// The one-paragraph summary under the overall verdict.
+pub fn summary(report: &Report) -> String {
+    if report.findings.is_empty() {
+        return "No checks ran on this sheet, so nothing can be said about it yet.".to_string();
+    }
+    let n = report.findings.len();
+    let mut counts = Vec::new();
+    for v in Verdict::ALL {
+        let k = report.findings.iter().filter(|f| f.verdict == v).count();
+        if k > 0 {
+            counts.push(format!("{k} {}", v.label()));
+        }
+    }
+    let worst = report
+        .findings
+        .iter()
+        .max_by_key(|f| f.verdict.severity())
+        .expect("findings is not empty");
+    let mut s = format!(
+        "{n} check{} ran on this sheet: {}. The overall verdict is the worst of them, {}: the claim {}.",
+        if n == 1 { "" } else { "s" },
+        counts.join(", "),
+        report.verdict.label(),
+        report.verdict.meaning()
+    );
+    if report.verdict != Verdict::Consistent {
+        s.push_str(&format!(
+            " The deciding check is {}: {}",
+            rule_title(worst.rule).to_lowercase(),
+            worst.headline
+        ));
+    }
+    s
+}
+
+#[derive(Template)]
+#[template(path = "verdict.html")]
+pub struct VerdictPage {
+    pub title: String,
+    pub source: Option<String>,
+    pub verdict: VerdictView,
+    pub summary: String,
+    pub findings: Vec<FindingView>,
+    pub drawings: Vec<Drawing>,
+    pub tiers: Vec<&'static str>,
+    pub cautions: Vec<&'static str>,
+    pub engine: &'static str,
+    pub downloads: Downloads,
+}
+
+impl VerdictPage {
+    pub fn new(report: &Report, claim: &Claim, downloads: Downloads) -> VerdictPage {
+        VerdictPage {
+            title: report.title.clone(),
+            source: claim.source.clone(),
+            verdict: VerdictView::of(report.verdict),
+            summary: summary(report),
+            findings: report.findings.iter().map(FindingView::of).collect(),
+            drawings: figures::all(report, claim),
+            tiers: Tier::ALL.iter().map(|t| t.label()).collect(),
+            cautions: report.cautions.clone(),
+            engine: report.engine,
+            downloads,
+        }
+    }
+}
+
+/// A demo as the form lists it.
+#[derive(Debug, Clone)]
+pub struct DemoLink {
+    pub name: &'static str,
+    pub title: String,
+    pub shows: &'static str,
+    pub verdict: VerdictView,
+}
+
+impl DemoLink {
+    pub fn of(d: &LoadedDemo) -> DemoLink {
+        DemoLink {
+            name: d.demo.name,
+            title: d.claim.title.clone(),
+            shows: d.demo.shows(),
+            verdict: VerdictView::of(d.report.verdict),
+        }
+    }
+}
+
+#[derive(Template)]
+#[template(path = "index.html")]
+pub struct IndexPage {
+    pub form: FormView,
+    pub demos: Vec<DemoLink>,
+    /// The demo loaded into the sheet box, if one was picked.
+    pub picked: Option<&'static str>,
+}
+
+pub struct RuleView {
+    pub id: &'static str,
+    pub title: &'static str,
+}
+
+pub struct TierRowView {
+    pub key: &'static str,
+    pub label: &'static str,
+    pub unit: &'static str,
+    pub values: Vec<String>,
+    pub basis: String,
+}
+
+#[derive(Template)]
+#[template(path = "methods.html")]
+pub struct MethodsPage {
+    pub rules: Vec<RuleView>,
+    pub tiers: Vec<&'static str>,
+    pub rows: Vec<TierRowView>,
+    pub sources: &'static [Source],
+    pub verdicts: Vec<VerdictView>,
+    pub hover_share: String,
+}
+
+impl MethodsPage {
+    pub fn new() -> MethodsPage {
+        MethodsPage {
+            rules: rules::REGISTRY
+                .iter()
+                .map(|r| RuleView {
+                    id: r.id,
+                    title: r.title,
+                })
+                .collect(),
+            tiers: Tier::ALL.iter().map(|t| t.label()).collect(),
+            rows: tiers::TABLE
+                .iter()
+                .map(|r| TierRowView {
+                    key: r.key,
+                    label: r.label,
+                    unit: unit_label(r.unit),
+                    values: r.values.iter().map(|v| number(*v)).collect(),
+                    basis: r.basis.describe(),
+                })
+                .collect(),
+            sources: sources::SOURCES,
+            verdicts: Verdict::ALL.iter().map(|v| VerdictView::of(*v)).collect(),
+            hover_share: number(tiers::HOVER_FRACTION_MAX.at(Tier::Typical) * 100.0),
+        }
+    }
+}
+
+impl Default for MethodsPage {
+    fn default() -> Self {
+        Self::new()
+    }
+}
+
+#[derive(Template)]
+#[template(path = "error.html")]
+pub struct ErrorPage {
+    pub status: u16,
+    pub reason: &'static str,
+    pub message: String,
+}
+
+impl ErrorPage {
+    pub fn new(status: StatusCode, message: String) -> ErrorPage {
+        ErrorPage {
+            status: status.as_u16(),
+            reason: status.canonical_reason().unwrap_or("Error"),
+            message,
+        }
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn numbers_keep_three_significant_figures_without_exponents() {
+        assert_eq!(number(5.0667), "5.07");
+        assert_eq!(number(3.0), "3.00");
+        assert_eq!(number(1234.6), "1235");
+        assert_eq!(number(0.012345), "0.0123");
+        assert_eq!(number(f64::INFINITY), "unbounded");
+        assert_eq!(number(-2.5), "-2.50");
+    }
+
+    #[test]
+    fn figures_group_by_key_with_tier_free_values_apart() {
+        let fig = |key, tier, value, unit| Figure {
+            key,
+            label: key.to_string(),
+            tier,
+            value,
+            unit,
+        };
+        let rows = figure_rows(&[
+            fig("weight", None, 3.04, "N"),
+            fig("rotors_needed", Some(Tier::Typical), 15.0, "1"),
+            fig("rotors_needed", Some(Tier::PhysicalLimit), 4.0, "1"),
+        ]);
+        assert_eq!(rows.len(), 2);
+        assert_eq!(rows[0].fixed.as_deref(), Some("3.04"));
+        assert_eq!(rows[1].by_tier, ["4", "-", "15"]);
+        assert_eq!(rows[1].unit, "ratio");
+    }
+
+    #[test]
+    fn every_verdict_has_its_own_icon_shape() {
+        let icons: Vec<&str> = Verdict::ALL.iter().map(|v| icon(*v)).collect();
+        for (i, a) in icons.iter().enumerate() {
+            assert!(icons[i + 1..].iter().all(|b| b != a));
+            assert!(a.contains("aria-hidden=\"true\""));
+        }
+    }
+}
