@@ -3,6 +3,7 @@
 //! no panics.
 
 pub mod common;
+pub mod thrust_margin;
 
 use crate::claim::Claim;
 use crate::report::{Finding, Report};
@@ -14,7 +15,11 @@ pub struct Rule {
     pub check: fn(&Claim) -> Finding,
 }
 
-pub const REGISTRY: &[Rule] = &[];
+pub const REGISTRY: &[Rule] = &[Rule {
+    id: thrust_margin::ID,
+    title: thrust_margin::TITLE,
+    check: thrust_margin::check,
+}];
 
 /// Runs every rule and gathers the report.
 pub fn run_all(claim: &Claim) -> Report {
