@@ -4,6 +4,7 @@
 
 pub mod common;
 pub mod thrust_margin;
+pub mod tilt_equilibrium;
 
 use crate::claim::Claim;
 use crate::report::{Finding, Report};
@@ -15,11 +16,18 @@ pub struct Rule {
     pub check: fn(&Claim) -> Finding,
 }
 
-pub const REGISTRY: &[Rule] = &[Rule {
-    id: thrust_margin::ID,
-    title: thrust_margin::TITLE,
-    check: thrust_margin::check,
-}];
+pub const REGISTRY: &[Rule] = &[
+    Rule {
+        id: thrust_margin::ID,
+        title: thrust_margin::TITLE,
+        check: thrust_margin::check,
+    },
+    Rule {
+        id: tilt_equilibrium::ID,
+        title: tilt_equilibrium::TITLE,
+        check: tilt_equilibrium::check,
+    },
+];
 
 /// Runs every rule and gathers the report.
 pub fn run_all(claim: &Claim) -> Report {
