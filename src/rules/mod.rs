@@ -3,6 +3,7 @@
 //! no panics.
 
 pub mod common;
+pub mod energy_budget;
 pub mod thrust_margin;
 pub mod tilt_equilibrium;
 
