@@ -22,7 +22,7 @@ use crate::catalog::{self, Chemistry, Drive};
 use crate::claim::{Claim, Layout};
 use crate::physics::atmosphere::Air;
 use crate::physics::{battery, rotor};
-use crate::report::{Finding, Verdict};
+use crate::report::Finding;
 
 pub const ID: &str = "energy-budget";
 pub const TITLE: &str = "Energy for the stated flight time";
@@ -359,6 +359,7 @@ fn would_take(
 mod tests {
     use super::*;
     use crate::claim::{parse, Format};
+    use crate::report::Verdict;
 
     fn sheet(text: &str) -> Claim {
         parse(&format!("title = \"t\"\n{text}"), Format::Toml).unwrap()
