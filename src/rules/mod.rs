@@ -4,6 +4,7 @@
 
 pub mod common;
 pub mod energy_budget;
+pub mod sensing;
 pub mod thrust_margin;
 pub mod tilt_equilibrium;
 
