@@ -26,6 +26,7 @@ use crate::report::Finding;
 
 pub const ID: &str = "energy-budget";
 pub const TITLE: &str = "Energy for the stated flight time";
+pub const METHOD: &str = "Hover power from momentum theory at the take-off mass (battery included): P_ideal = W^(3/2) / sqrt(2 rho A) with A the total disk area; P_shaft = P_ideal / FM; P_elec = P_shaft / (eta_motor eta_controller) + avionics. Usable energy E = cells x nominal cell voltage x capacity x depth of discharge; hover time t = E / P_elec, compared with the claimed flight time per tier. The stated pack's specific energy (cells x V x capacity / mass) is compared with the chemistry's ordinary, best and ceiling values; the hover current P_elec / V_pack in C with the pack's rating. The endurance ceiling of the airframe: with a battery of fixed specific energy, t ~ m_b / (m_0 + m_b)^(3/2), greatest at m_b = 2 m_0.";
 
 /// Everything the hover power depends on but the mass.
 struct Airframe {

@@ -21,6 +21,7 @@ use crate::report::{Figure, Finding, Verdict};
 
 pub const ID: &str = "sensing";
 pub const TITLE: &str = "Sensing and stabilisation";
+pub const METHOD: &str = "A hovering multirotor has no restoring moment. A thrust mismatch delta of one rotor makes a moment M = delta (W / n) arm; with the body's moment of inertia I (a box, I = m (a^2 + b^2) / 12) it tips at alpha = M / I and reaches 30 deg after t = sqrt(2 theta / alpha). A craft said to hover by itself without a rate gyroscope is impossible (an open-loop unstable system needs its rates fed back); a pilot flying without one is implausible when the time to tip is under three reaction times (0.25 s each). Hands-free level hover needs an accelerometer (a gyro alone drifts); a height hold needs a height sensor (else an accelerometer bias b drifts height by b t^2 / 2); staying in place needs a position sensor (else a level error e slides it by g tan(e) t^2 / 2). A hold is doubtful or implausible by how long its drift takes to reach 1 m (or 5 deg) against the claimed flight time.";
 
 /// The tilt at which a hovering craft is past saving for a pilot.
 const TIP_ANGLE_DEG: f64 = 30.0;

@@ -24,6 +24,7 @@ use crate::report::{Finding, Verdict};
 
 pub const ID: &str = "thrust-margin";
 pub const TITLE: &str = "Thrust and control margin";
+pub const METHOD: &str = "Weight W = m g with g from the ISA at the stated altitude. Each rotor's maximum thrust is the stated one (a mass such as '30 g' read as gram-force), else the motor class's, in both cases scaled by air density rho / rho0. The momentum-theory bound for a rotor of disk area A on electrical power P is T <= (2 rho A)^(1/3) (FM eta P)^(2/3); it caps the class figures at each tier, and a stated thrust above it is impossible (FM = eta = 1) or implausible (best-practice FM and eta). The claim passes a tier when W <= n T_rotor, and at the typical tier when W <= 0.7 n T_rotor (common practice: hover at no more than about 70 % of maximum thrust). Rotors needed: ceil(W / (0.7 T_rotor)).";
 
 /// The hover share of maximum thrust that sizes the rotor count (common practice).
 const SIZING_FRACTION: f64 = 0.7;
@@ -311,7 +312,7 @@ fn class_typical(claim: &Claim, class: &MotorClass, air: &Air) -> Force {
 fn would_take(claim: &Claim, est: &Estimate, w: Force, air: &Air) -> String {
     let n = claim.rotors.count;
     let typical = est.available[Tier::Typical as usize];
-    let needed = (w / (typical * SIZING_FRACTION)).value.ceil();
+    let needed = (w / (typical * SIZING_FRACTION)).value.ceil() as u64;
     let lightest = typical * (f64::from(n) * SIZING_FRACTION);
     let hover_ok = w <= lightest;
     if hover_ok {
@@ -321,8 +322,7 @@ fn would_take(claim: &Claim, est: &Estimate, w: Force, air: &Air) -> String {
         );
     }
     let mut line = format!(
-        "{} rotors of this kind instead of {n}, or a craft of at most {} on the {n} it has",
-        sig3(needed),
+        "{needed} rotors of this kind instead of {n}, or a craft of at most {} on the {n} it has",
         lift(lightest)
     );
     let class = catalog::MOTORS

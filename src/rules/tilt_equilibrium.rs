@@ -21,6 +21,7 @@ use crate::report::{Finding, Verdict};
 
 pub const ID: &str = "tilt-equilibrium";
 pub const TITLE: &str = "Holding the claimed attitude";
+pub const METHOD: &str = "A steady hover at body tilt theta with rotors fixed to the body tilts the thrust with it. Holding the weight W leaves a sideways force W tan(theta), an acceleration g tan(theta), and needs a thrust W / cos(theta). Rotors that tilt back relative to the body by up to their tilt range take out that much of the tilt. What remains can be held only by a steady headwind whose drag balances it, v = sqrt(2 W tan(theta) / (rho Cd A)), by a tether or a support. The drag coefficient Cd and the wind area A are taken per tier: the most a bluff body can have at the physical limit, a flat plate and a cube (Hoerner) at best practice and typical, on the pitched body's projected area.";
 
 /// Area the body shows to a horizontal wind when pitched by `tilt`:
 /// A = W H cos(theta) + L W sin(theta) for a box of length L, width W, height H.
