@@ -14,7 +14,11 @@ use liftaudit::rules;
 const BAD_INPUT: u8 = 64;
 
 #[derive(Parser)]
-#[command(name = "liftaudit", version, about = "Checks the physical plausibility of claims about small flying machines")]
+#[command(
+    name = "liftaudit",
+    version,
+    about = "Checks the physical plausibility of claims about small flying machines"
+)]
 struct Cli {
     #[command(subcommand)]
     command: Command,
@@ -44,7 +48,11 @@ enum OutputFormat {
 fn main() -> ExitCode {
     let cli = Cli::parse();
     match cli.command {
-        Command::Check { files, demo, format } => check(&files, &demo, format),
+        Command::Check {
+            files,
+            demo,
+            format,
+        } => check(&files, &demo, format),
     }
 }
 
@@ -69,7 +77,9 @@ fn check(files: &[String], demos: &[String], format: OutputFormat) -> ExitCode {
         return ExitCode::SUCCESS;
     }
     if files.is_empty() && demos.is_empty() {
-        eprintln!("liftaudit check: give at least one sheet file, `-` for standard input, or --demo NAME");
+        eprintln!(
+            "liftaudit check: give at least one sheet file, `-` for standard input, or --demo NAME"
+        );
         return ExitCode::from(BAD_INPUT);
     }
     let mut inputs: Vec<(String, Result<String, String>)> = Vec::new();

@@ -20,13 +20,21 @@ fn paint(text: &str, verdict: Verdict, color: bool) -> String {
 /// A number for a table cell: four significant figures, no exponent for ordinary sizes.
 fn number(v: f64) -> String {
     if !v.is_finite() {
-        return if v > 0.0 { "unbounded".into() } else { "n/a".into() };
+        return if v > 0.0 {
+            "unbounded".into()
+        } else {
+            "n/a".into()
+        };
     }
     let a = v.abs();
     if a != 0.0 && !(1e-3..1e6).contains(&a) {
         return format!("{v:.3e}");
     }
-    let digits = if a == 0.0 { 0 } else { (3 - a.log10().floor() as i32).max(0) as usize };
+    let digits = if a == 0.0 {
+        0
+    } else {
+        (3 - a.log10().floor() as i32).max(0) as usize
+    };
     format!("{v:.digits$}")
 }
 
@@ -56,16 +64,29 @@ pub fn render_text(report: &Report, color: bool) -> String {
     let _ = writeln!(
         s,
         "Verdict: {} ({})",
-        paint(&report.verdict.label().to_uppercase(), report.verdict, color),
+        paint(
+            &report.verdict.label().to_uppercase(),
+            report.verdict,
+            color
+        ),
         report.verdict.meaning()
     );
     for f in &report.findings {
         let _ = writeln!(s);
-        let _ = writeln!(s, "[{}] {}", paint(f.verdict.label(), f.verdict, color), f.rule);
+        let _ = writeln!(
+            s,
+            "[{}] {}",
+            paint(f.verdict.label(), f.verdict, color),
+            f.rule
+        );
         let _ = writeln!(s, "  {}", f.headline);
         let rows = rows(&f.figures);
         if !rows.is_empty() {
-            let width = rows.iter().map(|(g, _, _)| g.label.chars().count()).max().unwrap_or(0);
+            let width = rows
+                .iter()
+                .map(|(g, _, _)| g.label.chars().count())
+                .max()
+                .unwrap_or(0);
             let tiered = rows.iter().any(|(_, t, _)| t.iter().any(Option::is_some));
             if tiered {
                 let _ = writeln!(
@@ -78,7 +99,11 @@ pub fn render_text(report: &Report, color: bool) -> String {
                 );
             }
             for (g, by_tier, fixed) in rows {
-                let unit = if g.unit == "1" { String::new() } else { format!(" {}", g.unit) };
+                let unit = if g.unit == "1" {
+                    String::new()
+                } else {
+                    format!(" {}", g.unit)
+                };
                 match fixed {
                     Some(v) => {
                         let _ = writeln!(s, "  {:width$}  {}{unit}", g.label, number(v));
