@@ -38,20 +38,31 @@ fn number(v: f64) -> String {
     format!("{v:.digits$}")
 }
 
+/// One line of a finding's table: a figure key with its value per tier, or its one value.
+struct Row<'a> {
+    figure: &'a Figure,
+    by_tier: [Option<f64>; 3],
+    fixed: Option<f64>,
+}
+
 /// Groups a finding's figures by key, keeping first-seen order.
-fn rows(figures: &[Figure]) -> Vec<(&Figure, [Option<f64>; 3], Option<f64>)> {
-    let mut out: Vec<(&Figure, [Option<f64>; 3], Option<f64>)> = Vec::new();
+fn rows(figures: &[Figure]) -> Vec<Row<'_>> {
+    let mut out: Vec<Row<'_>> = Vec::new();
     for f in figures {
-        let i = match out.iter().position(|(g, _, _)| g.key == f.key) {
+        let i = match out.iter().position(|r| r.figure.key == f.key) {
             Some(i) => i,
             None => {
-                out.push((f, [None; 3], None));
+                out.push(Row {
+                    figure: f,
+                    by_tier: [None; 3],
+                    fixed: None,
+                });
                 out.len() - 1
             }
         };
         match f.tier {
-            Some(t) => out[i].1[t as usize] = Some(f.value),
-            None => out[i].2 = Some(f.value),
+            Some(t) => out[i].by_tier[t as usize] = Some(f.value),
+            None => out[i].fixed = Some(f.value),
         }
     }
     out
@@ -87,7 +98,7 @@ pub fn render_text(report: &Report, color: bool) -> String {
                 .map(|(g, _, _)| g.label.chars().count())
                 .max()
                 .unwrap_or(0);
-            let tiered = rows.iter().any(|(_, t, _)| t.iter().any(Option::is_some));
+            let tiered = rows.iter().any(|r| r.by_tier.iter().any(Option::is_some));
             if tiered {
                 let _ = writeln!(
                     s,
@@ -98,7 +109,12 @@ pub fn render_text(report: &Report, color: bool) -> String {
                     Tier::Typical.label()
                 );
             }
-            for (g, by_tier, fixed) in rows {
+            for Row {
+                figure: g,
+                by_tier,
+                fixed,
+            } in rows
+            {
                 let unit = if g.unit == "1" {
                     String::new()
                 } else {
