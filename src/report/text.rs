@@ -95,7 +95,7 @@ pub fn render_text(report: &Report, color: bool) -> String {
         if !rows.is_empty() {
             let width = rows
                 .iter()
-                .map(|(g, _, _)| g.label.chars().count())
+                .map(|r| r.figure.label.chars().count())
                 .max()
                 .unwrap_or(0);
             let tiered = rows.iter().any(|r| r.by_tier.iter().any(Option::is_some));
