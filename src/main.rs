@@ -1,5 +1,5 @@
-//! The `liftaudit` command: `serve` runs the web service, `check` reads
-//! claim sheets and prints their reports.
+//! The `liftaudit` command: `check` sheets from files or standard input,
+//! `serve` the web pages. Exit codes of `check` follow the report contract.
 
 use std::io::{IsTerminal, Read};
 use std::net::SocketAddr;
@@ -7,17 +7,20 @@ use std::process::ExitCode;
 
 use clap::{Parser, Subcommand, ValueEnum};
 
-use liftaudit::claim;
-use liftaudit::report::{self, Verdict};
+use liftaudit::claim::{self, demo};
+use liftaudit::report::{render_text, Report, Verdict};
 use liftaudit::rules;
 use liftaudit::web;
 
-/// Exit code for a sheet that cannot be read (BSD sysexits EX_DATAERR is 65;
-/// DESIGN fixes 64 for bad input of any kind).
+/// Exit code for a sheet that could not be read (sysexits EX_DATAERR-style, per the contract).
 const BAD_INPUT: u8 = 64;
 
 #[derive(Parser)]
-#[command(name = "liftaudit", version, about = "Checks the physical plausibility of claims about small flying machines")]
+#[command(
+    name = "liftaudit",
+    version,
+    about = "Checks the physical plausibility of claims about small flying machines"
+)]
 struct Cli {
     #[command(subcommand)]
     command: Command,
@@ -25,7 +28,7 @@ struct Cli {
 
 #[derive(Subcommand)]
 enum Command {
-    /// Run the web service.
+    /// Run the web service: the claim form, verdict pages and the JSON API.
     Serve {
         /// Address to listen on.
         #[arg(long, default_value = "127.0.0.1:8080")]
@@ -33,15 +36,19 @@ enum Command {
     },
     /// Check claim sheets (TOML or JSON; `-` reads standard input).
     Check {
-        #[arg(required = true)]
+        /// Sheet files; `-` for standard input.
         files: Vec<String>,
-        #[arg(long, value_enum, default_value_t = Output::Text)]
-        format: Output,
+        /// Check a built-in demo claim by name (see `--demo list`).
+        #[arg(long)]
+        demo: Vec<String>,
+        /// Output format.
+        #[arg(long, value_enum, default_value_t = OutputFormat::Text)]
+        format: OutputFormat,
     },
 }
 
 #[derive(Clone, Copy, ValueEnum)]
-enum Output {
+enum OutputFormat {
     Text,
     Json,
 }
@@ -50,10 +57,16 @@ fn main() -> ExitCode {
     let cli = Cli::parse();
     match cli.command {
         Command::Serve { addr } => serve(addr),
-        Command::Check { files, format } => check(&files, format),
+        Command::Check {
+            files,
+            demo,
+            format,
+        } => check(&files, &demo, format),
     }
 }
 
+/// Runs the service until Ctrl-C or SIGTERM; logs one line per request
+/// (`RUST_LOG` overrides the `info` level).
 fn serve(addr: SocketAddr) -> ExitCode {
     tracing_subscriber::fmt()
         .with_env_filter(
@@ -64,69 +77,100 @@ fn serve(addr: SocketAddr) -> ExitCode {
     let runtime = match tokio::runtime::Runtime::new() {
         Ok(rt) => rt,
         Err(e) => {
-            eprintln!("liftaudit: cannot start the runtime: {e}");
+            eprintln!("liftaudit serve: cannot start the runtime: {e}");
             return ExitCode::FAILURE;
         }
     };
     match runtime.block_on(web::serve(addr, web::Config::default())) {
         Ok(()) => ExitCode::SUCCESS,
         Err(e) => {
-            eprintln!("liftaudit: cannot serve on {addr}: {e}");
+            eprintln!("liftaudit serve: cannot serve on {addr}: {e}");
             ExitCode::FAILURE
         }
     }
 }
 
-fn read_input(file: &str) -> std::io::Result<String> {
-    if file == "-" {
+/// Reads one named input: a file path, or `-` for standard input.
+fn read_input(name: &str) -> Result<String, String> {
+    if name == "-" {
         let mut text = String::new();
-        std::io::stdin().read_to_string(&mut text)?;
+        std::io::stdin()
+            .read_to_string(&mut text)
+            .map_err(|e| format!("standard input: {e}"))?;
         Ok(text)
     } else {
-        std::fs::read_to_string(file)
+        std::fs::read_to_string(name).map_err(|e| format!("{name}: {e}"))
     }
 }
 
-fn check(files: &[String], format: Output) -> ExitCode {
-    let color = std::io::stdout().is_terminal() && std::env::var_os("NO_COLOR").is_none();
-    let mut worst: Option<Verdict> = None;
-    let mut bad_input = false;
-    for file in files {
-        let text = match read_input(file) {
-            Ok(t) => t,
-            Err(e) => {
-                eprintln!("{file}: cannot read: {e}");
-                bad_input = true;
-                continue;
-            }
-        };
-        let claim = match claim::parse_any(&text) {
-            Ok(c) => c,
-            Err(claim::Error::Invalid(errors)) => {
-                for e in errors {
-                    eprintln!("{file}: {e}");
-                }
-                bad_input = true;
-                continue;
-            }
-            Err(e) => {
-                eprintln!("{file}: {e}");
-                bad_input = true;
-                continue;
-            }
-        };
-        let report = rules::run_all(&claim);
-        match format {
-            Output::Json => println!("{}", report.to_json()),
-            Output::Text => println!("{}", report::render_text(&report, color)),
+fn check(files: &[String], demos: &[String], format: OutputFormat) -> ExitCode {
+    if demos.iter().any(|d| d == "list") {
+        for d in demo::DEMOS {
+            println!("{:24} {}", d.name, d.shows());
         }
-        worst = Some(match worst {
-            Some(w) => Verdict::worst([w, report.verdict]),
-            None => report.verdict,
-        });
+        return ExitCode::SUCCESS;
     }
-    if bad_input {
+    if files.is_empty() && demos.is_empty() {
+        eprintln!(
+            "liftaudit check: give at least one sheet file, `-` for standard input, or --demo NAME"
+        );
         return ExitCode::from(BAD_INPUT);
     }
-    ExitCode::from(worst.map_or(BAD_INPUT, |v| v.exit_code()))
+    let mut inputs: Vec<(String, Result<String, String>)> = Vec::new();
+    for name in demos {
+        let text = demo::find(name).map(|d| d.text.to_string()).ok_or_else(|| {
+            let known: Vec<&str> = demo::DEMOS.iter().map(|d| d.name).collect();
+            format!("no demo claim '{name}'; known: {}", known.join(", "))
+        });
+        inputs.push((format!("demo {name}"), text));
+    }
+    for name in files {
+        inputs.push((name.clone(), read_input(name)));
+    }
+
+    let color = std::io::stdout().is_terminal() && std::env::var_os("NO_COLOR").is_none();
+    let mut reports: Vec<Report> = Vec::new();
+    let mut bad = false;
+    for (name, text) in inputs {
+        let text = match text {
+            Ok(t) => t,
+            Err(e) => {
+                eprintln!("liftaudit check: {e}");
+                bad = true;
+                continue;
+            }
+        };
+        match claim::parse_any(&text) {
+            Ok(claim) => reports.push(rules::run_all(&claim)),
+            Err(e) => {
+                eprintln!("{name}: the sheet was not accepted");
+                for line in e.to_string().lines() {
+                    eprintln!("  {line}");
+                }
+                bad = true;
+            }
+        }
+    }
+    match format {
+        OutputFormat::Json if reports.len() == 1 => println!("{}", reports[0].to_json()),
+        OutputFormat::Json => {
+            let all: Vec<serde_json::Value> = reports
+                .iter()
+                .filter_map(|r| serde_json::to_value(r).ok())
+                .collect();
+            println!("{}", serde_json::to_string_pretty(&all).unwrap_or_default());
+        }
+        OutputFormat::Text => {
+            for (i, r) in reports.iter().enumerate() {
+                if i > 0 {
+                    println!("\n{}\n", "=".repeat(72));
+                }
+                print!("{}", render_text(r, color));
+            }
+        }
+    }
+    if bad {
+        return ExitCode::from(BAD_INPUT);
+    }
+    ExitCode::from(Verdict::worst(reports.iter().map(|r| r.verdict)).exit_code())
 }

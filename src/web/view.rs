@@ -309,6 +309,8 @@ pub struct IndexPage {
 pub struct RuleView {
     pub id: &'static str,
     pub title: &'static str,
+    /// The rule's method in words and formulas, as its module states it.
+    pub method: &'static str,
 }
 
 pub struct TierRowView {
@@ -338,6 +340,7 @@ impl MethodsPage {
                 .map(|r| RuleView {
                     id: r.id,
                     title: r.title,
+                    method: r.method,
                 })
                 .collect(),
             tiers: Tier::ALL.iter().map(|t| t.label()).collect(),
