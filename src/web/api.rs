@@ -50,12 +50,16 @@ fn format_of(headers: &HeaderMap, body: &str) -> Result<Format, Error> {
 
 fn body_text(body: Result<Bytes, BytesRejection>) -> Result<String, Error> {
     let bytes = body.map_err(|e| Error::from_status(e.status(), e.body_text()))?;
-    String::from_utf8(bytes.to_vec()).map_err(|_| Error::BadRequest("the body is not UTF-8 text".into()))
+    String::from_utf8(bytes.to_vec())
+        .map_err(|_| Error::BadRequest("the body is not UTF-8 text".into()))
 }
 
 fn json_response(json: String, attachment: Option<&str>) -> Response {
     let mut response = (
-        [(header::CONTENT_TYPE, HeaderValue::from_static("application/json"))],
+        [(
+            header::CONTENT_TYPE,
+            HeaderValue::from_static("application/json"),
+        )],
         json,
     )
         .into_response();
@@ -69,7 +73,9 @@ fn json_response(json: String, attachment: Option<&str>) -> Response {
 /// fixed word), never user text, so it needs no quoting beyond the quotes.
 fn set_attachment(response: &mut Response, name: &str) {
     if let Ok(v) = HeaderValue::from_str(&format!("attachment; filename=\"{name}\"")) {
-        response.headers_mut().insert(header::CONTENT_DISPOSITION, v);
+        response
+            .headers_mut()
+            .insert(header::CONTENT_DISPOSITION, v);
     }
 }
 
@@ -148,12 +154,18 @@ pub async fn demo_sheet(
     Path(name): Path<String>,
 ) -> Result<Response, ApiError> {
     let d = state.demo(&name).ok_or(Error::NotFound)?;
-    Ok(toml_file(d.demo.text.to_string(), &format!("{}.toml", d.demo.name)))
+    Ok(toml_file(
+        d.demo.text.to_string(),
+        &format!("{}.toml", d.demo.name),
+    ))
 }
 
 fn toml_file(text: String, name: &str) -> Response {
     let mut response = (
-        [(header::CONTENT_TYPE, HeaderValue::from_static("application/toml; charset=utf-8"))],
+        [(
+            header::CONTENT_TYPE,
+            HeaderValue::from_static("application/toml; charset=utf-8"),
+        )],
         text,
     )
         .into_response();
@@ -175,7 +187,10 @@ pub struct SheetForm {
 /// `POST /download/report.json`: the report of a posted sheet, as a file.
 pub async fn download_report(Form(form): Form<SheetForm>) -> Result<Response, ApiError> {
     let report = report_of(&form.sheet, claim::sniff(&form.sheet))?;
-    Ok(json_response(report.to_json(), Some("liftaudit-report.json")))
+    Ok(json_response(
+        report.to_json(),
+        Some("liftaudit-report.json"),
+    ))
 }
 
 /// `POST /download/sheet.toml`: the posted sheet back, as a file.

@@ -227,7 +227,13 @@ mod tests {
         });
         assert_eq!(syntax.status(), StatusCode::BAD_REQUEST);
         let body = serde_json::to_value(ErrorBody::of(&syntax)).unwrap();
-        assert_eq!((body["errors"][0]["line"].as_u64(), body["errors"][0]["column"].as_u64()), (Some(3), Some(7)));
+        assert_eq!(
+            (
+                body["errors"][0]["line"].as_u64(),
+                body["errors"][0]["column"].as_u64()
+            ),
+            (Some(3), Some(7))
+        );
     }
 
     #[test]

@@ -56,6 +56,7 @@ const MUTED: &str = "#6b7080";
 const PAPER: &str = "#fbfaf6";
 const FILL_A: &str = "#9cc7c4";
 const FILL_B: &str = "#e3c58d";
+const DISC: &str = "#eef5f4";
 
 /// Escapes text for SVG (XML 1.0 section 2.4: `<` and `&` in text, quotes in attributes).
 pub fn esc(text: &str) -> String {
@@ -90,8 +91,19 @@ impl Svg {
         }
     }
 
-    fn line(&mut self, (x1, y1): (f64, f64), (x2, y2): (f64, f64), stroke: &str, w: f64, dash: bool) {
-        let dash = if dash { " stroke-dasharray=\"5 4\"" } else { "" };
+    fn line(
+        &mut self,
+        (x1, y1): (f64, f64),
+        (x2, y2): (f64, f64),
+        stroke: &str,
+        w: f64,
+        dash: bool,
+    ) {
+        let dash = if dash {
+            " stroke-dasharray=\"5 4\""
+        } else {
+            ""
+        };
         let _ = write!(
             self.body,
             "<line x1=\"{x1:.1}\" y1=\"{y1:.1}\" x2=\"{x2:.1}\" y2=\"{y2:.1}\" stroke=\"{stroke}\" stroke-width=\"{w}\"{dash}/>"
@@ -132,7 +144,11 @@ impl Svg {
     }
 
     fn circle(&mut self, (cx, cy): (f64, f64), r: f64, fill: &str, stroke: &str, dash: bool) {
-        let dash = if dash { " stroke-dasharray=\"4 3\"" } else { "" };
+        let dash = if dash {
+            " stroke-dasharray=\"4 3\""
+        } else {
+            ""
+        };
         let _ = write!(
             self.body,
             "<circle cx=\"{cx:.1}\" cy=\"{cy:.1}\" r=\"{r:.1}\" fill=\"{fill}\" stroke=\"{stroke}\" stroke-width=\"1.5\"{dash}/>"
@@ -217,7 +233,12 @@ impl Forces {
     pub fn of(report: &Report, claim: &Claim) -> Option<Forces> {
         let tilt = report.finding("tilt-equilibrium");
         let tilt_deg = value(tilt, "hover_tilt", None)
-            .or_else(|| claim.claim.hover_tilt.map(|a| a.get::<uom::si::angle::degree>()))
+            .or_else(|| {
+                claim
+                    .claim
+                    .hover_tilt
+                    .map(|a| a.get::<uom::si::angle::degree>())
+            })
             .unwrap_or(0.0);
         if tilt_deg >= 89.5 {
             return None;
@@ -260,7 +281,13 @@ pub fn free_body(report: &Report, claim: &Claim) -> Drawing {
     // Ground reference and the body, nose (forward, +x) to the right, pitched
     // nose down by the tilt so that thrust leans forward.
     svg.line((20.0, 285.0), (340.0, 285.0), MUTED, 1.0, false);
-    svg.text((22.0, 279.0), "start", 11.0, MUTED, "level ground; forward is to the right");
+    svg.text(
+        (22.0, 279.0),
+        "start",
+        11.0,
+        MUTED,
+        "level ground; forward is to the right",
+    );
     let half = 46.0;
     let (bx, by) = (half * theta.cos(), half * theta.sin());
     svg.line(
@@ -290,21 +317,47 @@ pub fn free_body(report: &Report, claim: &Claim) -> Drawing {
     );
     if f.unbalanced > 0.0 {
         svg.line(vertical_tip, thrust_tip, MUTED, 1.0, true);
+        svg.line(horizontal_tip, thrust_tip, MUTED, 1.0, true);
         svg.arrow(centre, vertical_tip, MUTED, 1.5, true);
         svg.text(
             (centre.0 - 8.0, vertical_tip.1 + 12.0),
             "end",
             11.0,
             MUTED,
-            &format!("lift part {} N", number(f.weight)),
+            &format!("upward part {} N", number(f.weight)),
         );
         svg.arrow(centre, horizontal_tip, FORCE, 2.5, true);
         svg.text(
-            (horizontal_tip.0.min(330.0), centre.1 + 18.0),
-            "end",
+            (centre.0 + 46.0, centre.1 + 36.0),
+            "start",
             12.0,
             FORCE,
             &format!("unbalanced {} N", number(f.unbalanced)),
+        );
+        // The tilt angle, between the vertical and the thrust.
+        let r = 34.0;
+        let end = (centre.0 + r * theta.sin(), centre.1 - r * theta.cos());
+        svg.path(
+            &format!(
+                "M {:.1} {:.1} A {r} {r} 0 0 1 {:.1} {:.1}",
+                centre.0,
+                centre.1 - r,
+                end.0,
+                end.1
+            ),
+            INK,
+            1.2,
+        );
+        let mid = theta / 2.0;
+        svg.text(
+            (
+                centre.0 + (r + 6.0) * mid.sin(),
+                centre.1 - (r + 6.0) * mid.cos(),
+            ),
+            "start",
+            11.0,
+            INK,
+            &format!("tilt {} deg", number(f.tilt_deg)),
         );
     }
     svg.arrow(centre, thrust_tip, THRUST, 3.0, false);
@@ -315,19 +368,18 @@ pub fn free_body(report: &Report, claim: &Claim) -> Drawing {
         THRUST,
         &format!("thrust {} N", number(f.thrust)),
     );
-    svg.text(
-        (centre.0 + 10.0, centre.1 - 22.0),
-        "start",
-        11.0,
-        INK,
-        &format!("tilt {} deg", number(f.tilt_deg)),
-    );
 
     // Scale bar, bottom right.
     let step = nice_step(f.weight * 1.5);
     let bar = step * scale;
     svg.line((330.0 - bar, 265.0), (330.0, 265.0), INK, 2.0, false);
-    svg.text((330.0, 258.0), "end", 11.0, INK, &format!("{} N", number(step)));
+    svg.text(
+        (330.0, 258.0),
+        "end",
+        11.0,
+        INK,
+        &format!("{} N", number(step)),
+    );
 
     let caption = if f.unbalanced > 0.0 {
         format!(
@@ -370,6 +422,16 @@ fn axis(svg: &mut Svg, max: f64, y: f64, unit: &str) {
     svg.text((BAR_X + BAR_W, y + 28.0), "end", 10.0, MUTED, unit);
 }
 
+/// A value label at the end of a bar: beside it when there is room, else
+/// inside its end.
+fn bar_label(svg: &mut Svg, end: f64, y: f64, text: &str) {
+    if end + 6.0 + 6.0 * text.len() as f64 <= BAR_X + BAR_W + 20.0 {
+        svg.text((end + 5.0, y), "start", 10.5, INK, text);
+    } else {
+        svg.text((end - 5.0, y), "end", 10.5, INK, text);
+    }
+}
+
 /// Available thrust at each tier against the weight, with the line a craft
 /// should hover below (common practice: 70 % of maximum thrust).
 pub fn thrust_bar(report: &Report) -> Drawing {
@@ -394,45 +456,48 @@ pub fn thrust_bar(report: &Report) -> Drawing {
         .max(weight / hover_share)
         * 1.08;
     let x_of = |v: f64| BAR_X + v / max * BAR_W;
-    let row_h = 46.0;
-    let top = 34.0;
-    let height = top + row_h * rows.len() as f64 + 40.0;
-    let mut svg = Svg::new(390.0, height);
-    svg.text(
-        (BAR_X, 16.0),
-        "start",
-        11.0,
-        INK,
-        "bar: thrust at full power; | hover at most here",
-    );
+    let row_h = 34.0;
+    let top = 30.0;
+    let bottom = top + row_h * rows.len() as f64;
+    let mut svg = Svg::new(390.0, bottom + 62.0);
     for (i, (tier, available)) in rows.iter().enumerate() {
         let y = top + i as f64 * row_h;
         svg.text((BAR_X - 8.0, y + 15.0), "end", 12.0, INK, tier.label());
-        svg.rect(BAR_X, y + 2.0, x_of(*available) - BAR_X, 18.0, FILL_A, THRUST);
+        let end = x_of(*available);
+        svg.rect(BAR_X, y + 2.0, end - BAR_X, 18.0, FILL_A, THRUST);
         let hover_x = x_of(available * hover_share);
-        svg.line((hover_x, y - 2.0), (hover_x, y + 24.0), INK, 2.0, false);
-        let label = format!(
-            "{} N; hover line {} N",
-            number(*available),
-            number(available * hover_share)
+        svg.line((hover_x, y - 1.0), (hover_x, y + 23.0), INK, 2.5, false);
+        bar_label(
+            &mut svg,
+            end,
+            y + 15.0,
+            &format!("{} N", number(*available)),
         );
-        svg.text((BAR_X, y + 34.0), "start", 10.0, INK, &label);
     }
-    let bottom = top + row_h * rows.len() as f64 - 6.0;
     let wx = x_of(weight);
     svg.line((wx, top - 8.0), (wx, bottom), FORCE, 2.0, true);
     svg.text(
-        (wx.min(BAR_X + BAR_W - 4.0), top - 10.0),
+        (wx.clamp(BAR_X + 40.0, BAR_X + BAR_W - 40.0), top - 12.0),
         "middle",
         11.0,
         FORCE,
         &format!("weight {} N", number(weight)),
     );
-    axis(&mut svg, max, bottom + 2.0, "newtons");
+    axis(&mut svg, max, bottom, "newtons");
+    svg.text(
+        (10.0, bottom + 52.0),
+        "start",
+        10.5,
+        INK,
+        &format!(
+            "bar: all rotors at full power; solid mark: {:.0} % of it, the most to hover on",
+            hover_share * 100.0
+        ),
+    );
     let caption = format!(
-        "Bars to scale: the thrust all rotors give at full power under each set of assumptions. The dashed line is the weight, {} N; the short solid mark on each bar is {} % of that bar, the most a craft should spend just to hover.",
+        "Bars to scale: the thrust all rotors give at full power under each set of assumptions. The dashed line is the weight, {} N; the solid mark on each bar is {:.0} % of that bar, the most a craft should spend just to hover.",
         number(weight),
-        number(hover_share * 100.0)
+        hover_share * 100.0
     );
     Drawing {
         id: ID,
@@ -471,40 +536,40 @@ pub fn energy_bar(report: &Report) -> Drawing {
         return Drawing::omitted(ID, TITLE, "the energy figures are zero.");
     }
     let x_of = |v: f64| BAR_X + v / max * BAR_W;
-    let row_h = 58.0;
-    let top = 28.0;
-    let height = top + row_h * rows.len() as f64 + 36.0;
-    let mut svg = Svg::new(390.0, height);
-    svg.text(
-        (BAR_X, 14.0),
-        "start",
-        11.0,
-        INK,
-        "upper bar: stored, usable; lower bar: needed",
-    );
+    let row_h = 44.0;
+    let top = 12.0;
+    let bottom = top + row_h * rows.len() as f64;
+    let mut svg = Svg::new(390.0, bottom + 62.0);
     for (i, (tier, stored, needed)) in rows.iter().enumerate() {
         let y = top + i as f64 * row_h;
-        svg.text((BAR_X - 8.0, y + 18.0), "end", 12.0, INK, tier.label());
-        svg.rect(BAR_X, y, x_of(*stored) - BAR_X, 14.0, FILL_A, THRUST);
-        svg.text(
-            (BAR_X + 3.0, y + 26.0),
-            "start",
-            10.0,
-            INK,
+        svg.text((BAR_X - 8.0, y + 20.0), "end", 12.0, INK, tier.label());
+        let end = x_of(*stored);
+        svg.rect(BAR_X, y, end - BAR_X, 14.0, FILL_A, THRUST);
+        bar_label(
+            &mut svg,
+            end,
+            y + 11.0,
             &format!("stored {} Wh", number(*stored)),
         );
         if let Some(needed) = needed {
-            svg.rect(BAR_X, y + 30.0, x_of(*needed) - BAR_X, 14.0, FILL_B, FORCE);
-            svg.text(
-                (BAR_X + 3.0, y + 55.0),
-                "start",
-                10.0,
-                INK,
+            let end = x_of(*needed);
+            svg.rect(BAR_X, y + 17.0, end - BAR_X, 14.0, FILL_B, FORCE);
+            bar_label(
+                &mut svg,
+                end,
+                y + 28.0,
                 &format!("needed {} Wh", number(*needed)),
             );
         }
     }
-    axis(&mut svg, max, top + row_h * rows.len() as f64 - 2.0, "watt-hours");
+    axis(&mut svg, max, bottom - 4.0, "watt-hours");
+    svg.text(
+        (10.0, bottom + 48.0),
+        "start",
+        10.5,
+        INK,
+        "upper bar: usable energy stored; lower bar: energy the claim needs",
+    );
     let caption = match claimed_min {
         Some(min) if rows.iter().any(|r| r.2.is_some()) => format!(
             "Bars to scale: the battery's usable energy under each set of assumptions, and the energy hovering for the claimed {} min takes at that set's hover power.",
@@ -534,10 +599,10 @@ pub fn rotor_layout(claim: &Claim) -> Drawing {
         .map(|r| r.x.abs().max(r.y.abs()))
         .fold(0.0, f64::max);
     // Disc radius: the stated size, else a third of the largest arm.
-    let radius_m = plan
-        .diameter
-        .map(|d| d / 2.0)
-        .unwrap_or(if reach > 0.0 { reach / 3.0 } else { 0.05 });
+    let radius_m =
+        plan.diameter
+            .map(|d| d / 2.0)
+            .unwrap_or(if reach > 0.0 { reach / 3.0 } else { 0.05 });
     let extent = (reach + radius_m).max(1e-3);
     let (w, h) = (320.0, 320.0);
     let centre = (160.0, 165.0);
@@ -546,7 +611,13 @@ pub fn rotor_layout(claim: &Claim) -> Drawing {
     let to_page = |x: f64, y: f64| (centre.0 - y * scale, centre.1 - x * scale);
     let mut svg = Svg::new(w, h);
 
-    svg.arrow((centre.0, centre.1 - 14.0), (centre.0, 14.0), MUTED, 1.0, true);
+    svg.arrow(
+        (centre.0, centre.1 - 14.0),
+        (centre.0, 14.0),
+        MUTED,
+        1.0,
+        true,
+    );
     svg.text((centre.0 + 6.0, 16.0), "start", 11.0, MUTED, "front");
     let coaxial = plan.rotors.len() > 1
         && plan
@@ -561,14 +632,18 @@ pub fn rotor_layout(claim: &Claim) -> Drawing {
         let c = to_page(r.x, r.y);
         let shrink = if coaxial { 1.0 - 0.28 * i as f64 } else { 1.0 };
         let rad = (radius_m * scale * shrink).max(6.0);
-        svg.circle(c, rad, "none", THRUST, plan.diameter.is_none());
+        svg.circle(c, rad, DISC, THRUST, plan.diameter.is_none());
         spin_arrow(&mut svg, c, rad * 0.72, r.spin);
         let spin = match r.spin {
             Spin::Cw => "CW",
             Spin::Ccw => "CCW",
         };
         let label = if coaxial {
-            format!("{} {} {spin}", i + 1, if i == 0 { "upper" } else { "lower" })
+            format!(
+                "{} {} {spin}",
+                i + 1,
+                if i == 0 { "upper" } else { "lower" }
+            )
         } else {
             format!("{} {spin}", i + 1)
         };
@@ -637,10 +712,10 @@ fn spin_arrow(svg: &mut Svg, (cx, cy): (f64, f64), r: f64, spin: Spin) {
     let dir = if sweep_cw { 1.0 } else { -1.0 };
     let tangent = (-t.sin() * dir, t.cos() * dir);
     svg.arrow(
-        (e.0 - tangent.0 * 6.0, e.1 - tangent.1 * 6.0),
-        (e.0 + tangent.0 * 2.0, e.1 + tangent.1 * 2.0),
+        (e.0 - tangent.0 * 9.0, e.1 - tangent.1 * 9.0),
+        (e.0 + tangent.0 * 4.0, e.1 + tangent.1 * 4.0),
         THRUST,
-        1.5,
+        2.0,
         false,
     );
 }
@@ -703,7 +778,11 @@ mod tests {
         let report = Report::new("t".into(), Vec::new());
         let claim = sheet("");
         let drawings = all(&report, &claim);
-        let missing: Vec<&str> = drawings.iter().filter(|d| d.svg.is_none()).map(|d| d.id).collect();
+        let missing: Vec<&str> = drawings
+            .iter()
+            .filter(|d| d.svg.is_none())
+            .map(|d| d.id)
+            .collect();
         assert_eq!(missing, ["fig-forces", "fig-thrust", "fig-energy"]);
         assert!(drawings.iter().all(|d| !d.caption.is_empty()));
         // The layout comes from the sheet alone.
@@ -749,6 +828,9 @@ mod tests {
 
     #[test]
     fn svg_text_is_escaped() {
-        assert_eq!(esc("<a href=\"x\">&'"), "&lt;a href=&quot;x&quot;&gt;&amp;&#39;");
+        assert_eq!(
+            esc("<a href=\"x\">&'"),
+            "&lt;a href=&quot;x&quot;&gt;&amp;&#39;"
+        );
     }
 }

@@ -55,38 +55,118 @@ const GROUPS: &[(&str, &[Spec])] = &[
     (
         "The craft",
         &[
-            spec("title", "Name of the claim", "what it is and where the claim comes from", Value::Text),
-            spec("craft.mass", "Take-off mass", "battery included, such as 310 g", Value::Text),
+            spec(
+                "title",
+                "Name of the claim",
+                "what it is and where the claim comes from",
+                Value::Text,
+            ),
+            spec(
+                "craft.mass",
+                "Take-off mass",
+                "battery included, such as 310 g",
+                Value::Text,
+            ),
         ],
     ),
     (
         "Rotors",
         &[
-            spec("rotors.count", "Number of rotors", "such as 4", Value::Count),
-            spec("rotors.layout", "Arrangement", "", Value::Choice(Choices::Layout)),
-            spec("rotors.diameter", "Propeller diameter", "such as 55 mm", Value::Text),
-            spec("rotors.arm", "Centre to rotor axis", "such as 70 mm", Value::Text),
-            spec("rotors.motor", "Motor class", "", Value::Choice(Choices::Motor)),
-            spec("rotors.max_thrust", "Maximum thrust per rotor", "if stated, such as 30 g", Value::Text),
+            spec(
+                "rotors.count",
+                "Number of rotors",
+                "such as 4",
+                Value::Count,
+            ),
+            spec(
+                "rotors.layout",
+                "Arrangement",
+                "",
+                Value::Choice(Choices::Layout),
+            ),
+            spec(
+                "rotors.diameter",
+                "Propeller diameter",
+                "such as 55 mm",
+                Value::Text,
+            ),
+            spec(
+                "rotors.arm",
+                "Centre to rotor axis",
+                "such as 70 mm",
+                Value::Text,
+            ),
+            spec(
+                "rotors.motor",
+                "Motor class",
+                "",
+                Value::Choice(Choices::Motor),
+            ),
+            spec(
+                "rotors.max_thrust",
+                "Maximum thrust per rotor",
+                "if stated, such as 30 g",
+                Value::Text,
+            ),
         ],
     ),
     (
         "Battery",
         &[
-            spec("battery.chemistry", "Chemistry", "", Value::Choice(Choices::Chemistry)),
-            spec("battery.cells", "Cells in series", "such as 1", Value::Count),
-            spec("battery.capacity", "Capacity", "such as 600 mAh", Value::Text),
+            spec(
+                "battery.chemistry",
+                "Chemistry",
+                "",
+                Value::Choice(Choices::Chemistry),
+            ),
+            spec(
+                "battery.cells",
+                "Cells in series",
+                "such as 1",
+                Value::Count,
+            ),
+            spec(
+                "battery.capacity",
+                "Capacity",
+                "such as 600 mAh",
+                Value::Text,
+            ),
             spec("battery.mass", "Battery mass", "such as 15 g", Value::Text),
         ],
     ),
     (
         "What is claimed",
         &[
-            spec("claim.flight_time", "Flight time", "such as 15 min", Value::Text),
-            spec("claim.hover_tilt", "Tilt while hovering in place", "such as 30 deg", Value::Text),
-            spec("claim.hands_free", "Hovers with no pilot input", "", Value::Flag),
-            spec("claim.altitude_hold", "Holds its height by itself", "", Value::Flag),
-            spec("claim.position_hold", "Stays in place by itself", "", Value::Flag),
+            spec(
+                "claim.flight_time",
+                "Flight time",
+                "such as 15 min",
+                Value::Text,
+            ),
+            spec(
+                "claim.hover_tilt",
+                "Tilt while hovering in place",
+                "such as 30 deg",
+                Value::Text,
+            ),
+            spec(
+                "claim.hands_free",
+                "Hovers with no pilot input",
+                "",
+                Value::Flag,
+            ),
+            spec(
+                "claim.altitude_hold",
+                "Holds its height by itself",
+                "",
+                Value::Flag,
+            ),
+            spec(
+                "claim.position_hold",
+                "Stays in place by itself",
+                "",
+                Value::Flag,
+            ),
         ],
     ),
     (
@@ -95,7 +175,12 @@ const GROUPS: &[(&str, &[Spec])] = &[
             spec("sensing.gyroscope", "Rate gyroscope", "", Value::YesNo),
             spec("sensing.accelerometer", "Accelerometer", "", Value::YesNo),
             spec("sensing.barometer", "Barometer", "", Value::YesNo),
-            spec("sensing.position", "Position sensing", "", Value::Choice(Choices::Position)),
+            spec(
+                "sensing.position",
+                "Position sensing",
+                "",
+                Value::Choice(Choices::Position),
+            ),
         ],
     ),
 ];

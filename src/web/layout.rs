@@ -55,7 +55,7 @@ fn first_azimuth(layout: Option<Layout>, count: u32) -> f64 {
 
 /// The spin of rotor `i` (0-based) when the sheet gives none.
 fn usual_spin(i: usize) -> Spin {
-    if i % 2 == 0 {
+    if i.is_multiple_of(2) {
         Spin::Cw
     } else {
         Spin::Ccw
@@ -189,7 +189,9 @@ mod tests {
 
     #[test]
     fn a_side_by_side_pair_sits_left_and_right_and_an_unstated_arm_is_flagged() {
-        let plan = plan(&rotors_of("layout = \"side-by-side\"\nspins = [\"ccw\", \"cw\"]"));
+        let plan = plan(&rotors_of(
+            "layout = \"side-by-side\"\nspins = [\"ccw\", \"cw\"]",
+        ));
         assert!(plan.arm_assumed);
         assert!(plan.rotors[0].y < 0.0 && plan.rotors[1].y > 0.0);
         assert!(plan.rotors.iter().all(|r| r.x.abs() < 1e-12));

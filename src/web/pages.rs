@@ -123,8 +123,8 @@ pub async fn check(State(state): State<SharedState>, sub: Submission) -> Result<
     // Enter in a text input presses the first button (`from=sheet`), so an
     // empty sheet box with filled fields means the fields.
     let fields_filled = sub.fields.values().any(|v| !v.trim().is_empty());
-    let use_fields = sub.from.as_deref() == Some("fields")
-        || (sub.sheet.trim().is_empty() && fields_filled);
+    let use_fields =
+        sub.from.as_deref() == Some("fields") || (sub.sheet.trim().is_empty() && fields_filled);
     if use_fields {
         let refused = |errors: &[claim::FieldError], status| -> Result<Response, Error> {
             let page = index_page(&state, FormView::fields_refused(&sub.fields, errors), None);

@@ -50,7 +50,7 @@ fn figure_value(f: &Figure) -> String {
 /// A unit as the table prints it; a pure number is marked as a ratio.
 fn unit_label(unit: &str) -> &str {
     match unit {
-        "1" | "" => "ratio",
+        "1" | "" => "no unit",
         u => u,
     }
 }
@@ -416,7 +416,7 @@ mod tests {
         assert_eq!(rows.len(), 2);
         assert_eq!(rows[0].fixed.as_deref(), Some("3.04"));
         assert_eq!(rows[1].by_tier, ["4", "-", "15"]);
-        assert_eq!(rows[1].unit, "ratio");
+        assert_eq!(rows[1].unit, "no unit");
     }
 
     #[test]
