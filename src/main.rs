@@ -69,6 +69,7 @@ fn main() -> ExitCode {
 /// (`RUST_LOG` overrides the `info` level).
 fn serve(addr: SocketAddr) -> ExitCode {
     tracing_subscriber::fmt()
+        .with_ansi(std::io::stdout().is_terminal() && std::env::var_os("NO_COLOR").is_none())
         .with_env_filter(
             tracing_subscriber::EnvFilter::try_from_default_env()
                 .unwrap_or_else(|_| tracing_subscriber::EnvFilter::new("info")),

@@ -291,10 +291,20 @@ impl DemoLink {
         DemoLink {
             name: d.demo.name,
             title: d.claim.title.clone(),
-            shows: d.demo.shows(),
+            shows: without_verdict_word(d.demo.shows(), d.report.verdict),
             verdict: VerdictView::of(d.report.verdict),
         }
     }
+}
+
+/// A demo's "Shows:" line without a leading verdict word, which the badge
+/// beside it already says ("consistent. An ordinary quad..." -> "An ordinary quad...").
+fn without_verdict_word(shows: &'static str, verdict: Verdict) -> &'static str {
+    [verdict.id(), verdict.label()]
+        .iter()
+        .find_map(|w| shows.strip_prefix(w).and_then(|r| r.strip_prefix('.')))
+        .map(str::trim_start)
+        .unwrap_or(shows)
 }
 
 #[derive(Template)]
@@ -417,6 +427,18 @@ mod tests {
         assert_eq!(rows[0].fixed.as_deref(), Some("3.04"));
         assert_eq!(rows[1].by_tier, ["4", "-", "15"]);
         assert_eq!(rows[1].unit, "no unit");
+    }
+
+    #[test]
+    fn a_demo_line_drops_the_verdict_word_its_badge_already_shows() {
+        assert_eq!(
+            without_verdict_word("consistent. An ordinary quad.", Verdict::Consistent),
+            "An ordinary quad."
+        );
+        assert_eq!(
+            without_verdict_word("impossible on every count", Verdict::Impossible),
+            "impossible on every count"
+        );
     }
 
     #[test]
