@@ -352,7 +352,7 @@ mod tests {
             assert!((3.6..=3.7).contains(&c.nominal_v), "{id}");
             assert_eq!(c.full_v, 4.2, "{id}");
             let (ordinary, best, ceiling) = c.specific_energy_wh_kg;
-            assert!(ordinary < best && best <= 300.0 && best >= 250.0 && ceiling > best);
+            assert!(ordinary < best && (250.0..=300.0).contains(&best) && ceiling > best);
         }
     }
 }

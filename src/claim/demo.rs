@@ -29,7 +29,17 @@ macro_rules! demos {
 }
 
 /// Every demo, in the order the form lists them.
-pub const DEMOS: &[Demo] = demos!["hover-lamp"];
+pub const DEMOS: &[Demo] = demos![
+    "hover-lamp",
+    "classroom-quad",
+    "pocket-selfie",
+    "ridge-hover",
+    "hand-flown-toy",
+    "cargo-octo",
+    "hallway-hold",
+    "super-cell-claim",
+    "mystery-listing",
+];
 
 pub fn find(name: &str) -> Option<&'static Demo> {
     DEMOS.iter().find(|d| d.name == name)

@@ -868,7 +868,7 @@ fn read_axis(field: &str, node: &Node, errors: &mut Errors) -> Option<[f64; 3]> 
         }
     };
     let norm = (v[0] * v[0] + v[1] * v[1] + v[2] * v[2]).sqrt();
-    if !(norm > 1e-9) || !norm.is_finite() {
+    if norm.is_nan() || norm <= 1e-9 || !norm.is_finite() {
         errors.push(field, "must not be the zero vector");
         return None;
     }

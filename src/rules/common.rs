@@ -56,7 +56,8 @@ pub fn fixed(key: &'static str, label: &str, value: f64, unit: &'static str) -> 
     }
 }
 
-/// One figure per tier from `value(tier)`.
+/// One figure per tier from `value(tier)`. A tier whose value is unbounded
+/// (a perfect sensor never drifts) gets no figure: reports hold finite numbers only.
 pub fn per_tier(
     key: &'static str,
     label: &str,
@@ -65,7 +66,9 @@ pub fn per_tier(
 ) -> Vec<Figure> {
     Tier::ALL
         .into_iter()
-        .map(|t| tiered(key, label, t, value(t), unit))
+        .map(|t| (t, value(t)))
+        .filter(|(_, v)| v.is_finite())
+        .map(|(t, v)| tiered(key, label, t, v, unit))
         .collect()
 }
 

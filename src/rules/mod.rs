@@ -3,18 +3,41 @@
 //! no panics.
 
 pub mod common;
+pub mod energy_budget;
+pub mod sensing;
+pub mod thrust_margin;
+pub mod tilt_equilibrium;
 
 use crate::claim::Claim;
 use crate::report::{Finding, Report};
 
-/// A rule's id (as in the report) and its function.
+/// A rule's id (as in the report), its title, its method in words and
+/// formulas (printed on the methods page), and its function.
 pub struct Rule {
     pub id: &'static str,
     pub title: &'static str,
+    pub method: &'static str,
     pub check: fn(&Claim) -> Finding,
 }
 
-pub const REGISTRY: &[Rule] = &[];
+macro_rules! rule {
+    ($m:ident) => {
+        Rule {
+            id: $m::ID,
+            title: $m::TITLE,
+            method: $m::METHOD,
+            check: $m::check,
+        }
+    };
+}
+
+/// Every rule, in report order.
+pub const REGISTRY: &[Rule] = &[
+    rule!(thrust_margin),
+    rule!(tilt_equilibrium),
+    rule!(energy_budget),
+    rule!(sensing),
+];
 
 /// Runs every rule and gathers the report.
 pub fn run_all(claim: &Claim) -> Report {

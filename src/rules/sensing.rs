@@ -1,0 +1,401 @@
+//! Rule 4, sensing: can the sensors on board keep the craft the way it is said to fly?
+//!
+//! A hovering multirotor has no natural restoring moment: a thrust mismatch of a
+//! few percent between rotors tips it. Givens: mass, size, arm, rotor count,
+//! sensors. Method: moment M = delta (W / n) arm, inertia of the body as a box,
+//! alpha = M / I, time to tip 30 deg t = sqrt(2 theta / alpha). Compared with
+//! human reaction time for a pilot; for hands-free flight, attitude, height and
+//! position holds, the drift of the sensors that are (or are not) there.
+
+use uom::si::f64::{Acceleration, Angle, Length, MomentOfInertia, Time, Torque};
+use uom::si::{
+    acceleration::meter_per_second_squared, angle::degree, length::meter,
+    moment_of_inertia::kilogram_square_meter, time::second,
+};
+
+use super::common::{self, fixed, per_tier, sig3};
+use crate::catalog::tiers::{Tier, ACCEL_BIAS, GYRO_DRIFT, LEVEL_ERROR, THRUST_MISMATCH};
+use crate::claim::{Claim, PositionSensor};
+use crate::physics::body;
+use crate::report::{Figure, Finding, Verdict};
+
+pub const ID: &str = "sensing";
+pub const TITLE: &str = "Sensing and stabilisation";
+pub const METHOD: &str = "A hovering multirotor has no restoring moment. A thrust mismatch delta of one rotor makes a moment M = delta (W / n) arm; with the body's moment of inertia I (a box, I = m (a^2 + b^2) / 12) it tips at alpha = M / I and reaches 30 deg after t = sqrt(2 theta / alpha). A craft said to hover by itself without a rate gyroscope is impossible (an open-loop unstable system needs its rates fed back); a pilot flying without one is implausible when the time to tip is under three reaction times (0.25 s each). Hands-free level hover needs an accelerometer (a gyro alone drifts); a height hold needs a height sensor (else an accelerometer bias b drifts height by b t^2 / 2); staying in place needs a position sensor (else a level error e slides it by g tan(e) t^2 / 2). A hold is doubtful or implausible by how long its drift takes to reach 1 m (or 5 deg) against the claimed flight time.";
+
+/// The tilt at which a hovering craft is past saving for a pilot.
+const TIP_ANGLE_DEG: f64 = 30.0;
+/// Human simple reaction time, 0.25 s (`reaction-time`, from memory).
+const REACTION_S: f64 = 0.25;
+/// A pilot needs several reaction times to catch a tip (common practice: three).
+const REACTIONS_TO_CATCH: f64 = 3.0;
+/// The attitude error that sets a hands-free craft sliding away: 5 deg (common practice).
+const ATTITUDE_ERROR_DEG: f64 = 5.0;
+/// A drift that matters indoors: 1 m (common practice).
+const DRIFT_THAT_MATTERS_M: f64 = 1.0;
+/// A hold is judged over the claimed flight time, else over one minute.
+const DEFAULT_HOLD_S: f64 = 60.0;
+
+/// One part of the judgement: a verdict and the sentence that explains it.
+struct Part {
+    verdict: Verdict,
+    says: String,
+    fix: Option<String>,
+}
+
+/// The lever of a rotor about the axis the craft tips on, and the inertia about it.
+fn tipping_geometry(claim: &Claim) -> Option<(Length, MomentOfInertia, &'static str)> {
+    let m = claim.craft.mass;
+    let arm = claim.rotors.arm;
+    match (arm, claim.craft.size) {
+        (Some(arm), Some(size)) => {
+            // Tips fastest about the axis with less inertia: roll uses width, pitch length.
+            let roll = body::box_inertia(m, size.width, size.height);
+            let pitch = body::box_inertia(m, size.length, size.height);
+            Some((arm, roll.min(pitch), "a solid box of the stated size"))
+        }
+        (Some(arm), None) => {
+            // No size: a flat square plate spanning the rotors, 2 arm on a side.
+            let side = arm * 2.0;
+            Some((
+                arm,
+                body::box_inertia(m, side, Length::new::<meter>(0.0)),
+                "a flat square plate spanning the rotors (craft.size not given)",
+            ))
+        }
+        (None, Some(size)) if claim.rotors.count >= 2 => Some((
+            size.width.min(size.length) * 0.5,
+            body::box_inertia(m, size.width, size.height).min(body::box_inertia(
+                m,
+                size.length,
+                size.height,
+            )),
+            "a solid box of the stated size, rotors at its edge (rotors.arm not given)",
+        )),
+        _ => None,
+    }
+}
+
+/// How long a constant error takes to build up a drift: x = a t^2 / 2 -> t = sqrt(2 x / a) (`inertial-drift`).
+fn time_to_drift(accel: Acceleration) -> Time {
+    let x = Length::new::<meter>(DRIFT_THAT_MATTERS_M);
+    if accel.get::<meter_per_second_squared>() <= 0.0 {
+        return Time::new::<second>(f64::INFINITY);
+    }
+    (x * 2.0 / accel).sqrt()
+}
+
+/// Judges a drift time per tier against the hold time: failing best practice is
+/// implausible, typical doubtful; no law is broken, so never impossible.
+fn judge_drift(drift: [Time; 3], hold: Time) -> Verdict {
+    common::verdict_of(|t| t == Tier::PhysicalLimit || drift[t as usize] >= hold)
+}
+
+pub fn check(claim: &Claim) -> Finding {
+    let air = common::air(claim);
+    let w = common::weight(claim, &air);
+    let s = &claim.sensing;
+    let c = &claim.claim;
+    let n = f64::from(claim.rotors.count);
+    let hold = c.flight_time.unwrap_or(Time::new::<second>(DEFAULT_HOLD_S));
+    let mut figures: Vec<Figure> = Vec::new();
+    let mut parts: Vec<Part> = Vec::new();
+    let mut assumptions = vec![format!(
+        "Thrust mismatch {} / {} / {} of one rotor's hover thrust (physical limit / best practice / typical); {}.",
+        THRUST_MISMATCH.at(Tier::PhysicalLimit),
+        THRUST_MISMATCH.at(Tier::BestPractice),
+        THRUST_MISMATCH.at(Tier::Typical),
+        THRUST_MISMATCH.basis.describe()
+    )];
+
+    // Time to tip from a thrust mismatch, from rest, at constant moment.
+    let geometry = tipping_geometry(claim);
+    let tip = geometry.map(|(arm, inertia, shape)| {
+        assumptions.push(format!("Moment of inertia of {shape}."));
+        figures.push(fixed(
+            "moment_of_inertia",
+            "Moment of inertia about the tipping axis",
+            inertia.get::<kilogram_square_meter>(),
+            "kg m^2",
+        ));
+        Tier::ALL.map(|t| {
+            let moment: Torque = (w / n * THRUST_MISMATCH.at(t) * arm).into();
+            let alpha = body::angular_acceleration(moment, inertia);
+            body::time_to_turn(Angle::new::<degree>(TIP_ANGLE_DEG), alpha)
+        })
+    });
+    if let Some(tip) = tip {
+        figures.extend(per_tier(
+            "time_to_tip",
+            "Time to tip 30 deg from a thrust mismatch",
+            "s",
+            |t| tip[t as usize].get::<second>(),
+        ));
+        figures.push(fixed(
+            "reaction_time",
+            "Human reaction time",
+            REACTION_S,
+            "s",
+        ));
+    }
+    let hold_needs = "over the claimed flight time (or one minute)";
+
+    // 1. Stabilising the attitude: a rate gyro, or a pilot fast enough.
+    let catch = Time::new::<second>(REACTION_S * REACTIONS_TO_CATCH);
+    match (c.hands_free, s.gyroscope) {
+        (true, Some(false)) => parts.push(Part {
+            verdict: Verdict::Impossible,
+            says: "It is said to hover by itself with no gyroscope: an unstable craft cannot be held without measuring how fast it turns.".into(),
+            fix: Some("a rate gyroscope and a flight controller closing the loop at a few hundred hertz".into()),
+        }),
+        (_, None) => parts.push(Part {
+            verdict: Verdict::NotAssessed,
+            says: "The sheet does not say whether it has a gyroscope (sensing.gyroscope).".into(),
+            fix: Some("say whether it has a gyroscope (sensing.gyroscope)".into()),
+        }),
+        (false, Some(false)) => match tip {
+            Some(tip) => {
+                let v = common::verdict_of(|t| t == Tier::PhysicalLimit || tip[t as usize] >= catch);
+                parts.push(Part {
+                    verdict: v,
+                    says: format!(
+                        "With no gyroscope the pilot must catch every tip by hand: it tips 30 deg in about {} s, against a reaction time of {} s.",
+                        sig3(tip[Tier::Typical as usize].get::<second>()),
+                        REACTION_S
+                    ),
+                    fix: (v != Verdict::Consistent).then(|| "a rate gyroscope in a stabilising loop".to_string()),
+                });
+            }
+            None => parts.push(Part {
+                verdict: Verdict::NotAssessed,
+                says: "Flown by hand with no gyroscope; the time to tip needs the arm (rotors.arm) or the size (craft.size).".into(),
+                fix: Some("give rotors.arm or craft.size".into()),
+            }),
+        },
+        (_, Some(true)) => parts.push(Part {
+            verdict: Verdict::Consistent,
+            says: "A rate gyroscope senses the tipping that a thrust mismatch starts.".into(),
+            fix: None,
+        }),
+    }
+
+    // 2. Hands-free level hover needs a level reference: an accelerometer.
+    if c.hands_free && s.gyroscope == Some(true) {
+        match s.accelerometer {
+            Some(false) => {
+                let drift = Tier::ALL.map(|t| {
+                    let rate = GYRO_DRIFT.at(t); // deg per hour
+                    Time::new::<second>(if rate > 0.0 { ATTITUDE_ERROR_DEG / rate * 3600.0 } else { f64::INFINITY })
+                });
+                figures.extend(per_tier("attitude_drift_time", "Time for the gyro alone to drift 5 deg", "s", |t| {
+                    drift[t as usize].get::<second>()
+                }));
+                let v = judge_drift(drift, hold);
+                parts.push(Part {
+                    verdict: v,
+                    says: format!(
+                        "Hands-free with a gyroscope but no accelerometer, its idea of level drifts 5 deg in about {} s with typical parts.",
+                        sig3(drift[Tier::Typical as usize].get::<second>())
+                    ),
+                    fix: (v != Verdict::Consistent).then(|| "an accelerometer to keep the level reference".to_string()),
+                });
+            }
+            None => parts.push(Part {
+                verdict: Verdict::NotAssessed,
+                says: "Hands-free: the sheet does not say whether it has an accelerometer (sensing.accelerometer).".into(),
+                fix: Some("say whether it has an accelerometer (sensing.accelerometer)".into()),
+            }),
+            Some(true) => {}
+        }
+    }
+
+    // 3. Holding height needs a height sensor; else the accelerometer's bias integrates.
+    let height_sensor = s.barometer == Some(true)
+        || matches!(
+            s.position,
+            Some(PositionSensor::Gnss | PositionSensor::OpticalFlow | PositionSensor::Vision)
+        );
+    if (c.altitude_hold || c.position_hold) && !height_sensor {
+        let v = if s.accelerometer == Some(true) {
+            let drift = Tier::ALL.map(|t| {
+                time_to_drift(Acceleration::new::<meter_per_second_squared>(
+                    ACCEL_BIAS.at(t),
+                ))
+            });
+            figures.extend(per_tier(
+                "height_drift_time",
+                "Time for height to drift 1 m without a height sensor",
+                "s",
+                |t| drift[t as usize].get::<second>(),
+            ));
+            let v = judge_drift(drift, hold);
+            parts.push(Part {
+                verdict: v,
+                says: format!(
+                    "It is said to hold its height with no height sensor; the accelerometer alone lets height drift 1 m in about {} s.",
+                    sig3(drift[Tier::Typical as usize].get::<second>())
+                ),
+                fix: None,
+            });
+            v
+        } else {
+            parts.push(Part {
+                verdict: Verdict::Implausible,
+                says: "It is said to hold its height with nothing on board that senses height or vertical motion.".into(),
+                fix: None,
+            });
+            Verdict::Implausible
+        };
+        if let Some(last) = parts.last_mut() {
+            last.fix = (v != Verdict::Consistent)
+                .then(|| "a barometer or a range sensor for height".to_string());
+        }
+    }
+
+    // 4. Staying in place needs a position sensor; else a level error slides it away.
+    let position_sensor = matches!(
+        s.position,
+        Some(PositionSensor::Gnss | PositionSensor::OpticalFlow | PositionSensor::Vision)
+    );
+    if c.position_hold && !position_sensor {
+        let drift = Tier::ALL.map(|t| {
+            let err = Angle::new::<degree>(LEVEL_ERROR.at(t));
+            time_to_drift(body::tilt_acceleration(air.gravity, err))
+        });
+        figures.extend(per_tier(
+            "position_drift_time",
+            "Time to drift 1 m sideways without a position sensor",
+            "s",
+            |t| drift[t as usize].get::<second>(),
+        ));
+        let v = if s.accelerometer == Some(true) {
+            judge_drift(drift, hold)
+        } else {
+            Verdict::Implausible
+        };
+        parts.push(Part {
+            verdict: v,
+            says: format!(
+                "It is said to stay in place with no position sensor; a level error of {} deg slides it 1 m in about {} s.",
+                LEVEL_ERROR.at(Tier::Typical),
+                sig3(drift[Tier::Typical as usize].get::<second>())
+            ),
+            fix: (v != Verdict::Consistent).then(|| "a position sensor: optical flow with a range sensor indoors, satellite navigation outdoors".to_string()),
+        });
+    }
+    if c.altitude_hold || c.position_hold || c.hands_free {
+        assumptions.push(format!(
+            "Holds are judged {hold_needs}: {} s; a drift of {DRIFT_THAT_MATTERS_M} m or {ATTITUDE_ERROR_DEG} deg matters (common practice).",
+            sig3(hold.get::<second>())
+        ));
+    }
+
+    let verdict = Verdict::worst(parts.iter().map(|p| p.verdict));
+    let worst = parts.iter().find(|p| p.verdict == verdict);
+    let headline = worst.map_or_else(|| "Nothing to judge.".to_string(), |p| p.says.clone());
+    let fixes: Vec<String> = parts.iter().filter_map(|p| p.fix.clone()).collect();
+    let would_take = if fixes.is_empty() {
+        "Nothing more for sensing.".to_string()
+    } else {
+        let mut fixes = fixes;
+        fixes.dedup();
+        format!("Add {}.", fixes.join("; "))
+    };
+    assumptions.extend(
+        parts
+            .iter()
+            .filter(|p| worst.is_none_or(|w| !std::ptr::eq(*p, w)))
+            .map(|p| p.says.clone()),
+    );
+    Finding {
+        rule: ID,
+        verdict,
+        headline,
+        figures,
+        would_take,
+        assumptions,
+        sources: vec![
+            "rigid-body",
+            "feedback-stability",
+            "reaction-time",
+            "inertial-drift",
+        ],
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::claim::{parse, Format};
+
+    fn sheet(extra: &str) -> Claim {
+        let text = format!(
+            "title = \"t\"\n[craft]\nmass = \"310 g\"\nsize = \"160 mm x 80 mm x 22 mm\"\n[rotors]\ncount = 2\narm = \"70 mm\"\nmax_thrust = \"300 g\"\n{extra}"
+        );
+        parse(&text, Format::Toml).unwrap()
+    }
+
+    #[test]
+    fn time_to_tip_follows_the_rigid_body_formula() {
+        // I = m (W^2 + H^2) / 12 = 0.31 (0.08^2 + 0.022^2) / 12 = 1.7784e-4 kg m^2;
+        // M = 0.05 x (0.31 x 9.80665 / 2) x 0.07 = 5.3206e-3 N m (typical 5 % mismatch);
+        // alpha = 29.92 rad/s^2; t = sqrt(2 x 0.5236 / 29.92) = 0.187 s (rigid-body).
+        let f = check(&sheet("[sensing]\ngyroscope = true"));
+        let t = f.figure("time_to_tip", Some(Tier::Typical)).unwrap().value;
+        assert!((t - 0.187).abs() < 0.002, "{t}");
+    }
+
+    #[test]
+    fn a_hands_free_hover_without_a_gyroscope_is_impossible() {
+        // Feedback stability: an open-loop unstable plant needs its rates measured.
+        let f = check(&sheet(
+            "[claim]\nhands_free = true\n[sensing]\ngyroscope = false",
+        ));
+        assert_eq!(f.verdict, Verdict::Impossible);
+    }
+
+    #[test]
+    fn a_pilot_without_a_gyroscope_is_implausible_when_the_tip_beats_reaction() {
+        // Tip in 0.19 s (typical) to 0.42 s (2 %), against 3 reaction times of 0.25 s.
+        let f = check(&sheet("[sensing]\ngyroscope = false"));
+        assert_eq!(f.verdict, Verdict::Implausible);
+        // A big, slow craft (1 m box, 10 kg, 0.5 m arm) tips slowly enough for a pilot.
+        let slow = parse(
+            "title = \"t\"\n[craft]\nmass = \"10 kg\"\nsize = \"1 m x 1 m x 0.3 m\"\n[rotors]\ncount = 4\narm = \"0.1 m\"\nmax_thrust = \"5 kg\"\n[sensing]\ngyroscope = false",
+            Format::Toml,
+        )
+        .unwrap();
+        let f = check(&slow);
+        assert!(f.figure("time_to_tip", Some(Tier::Typical)).unwrap().value > 0.75);
+        assert_eq!(f.verdict, Verdict::Consistent);
+    }
+
+    #[test]
+    fn holds_without_their_sensor_are_doubtful_to_implausible_never_impossible() {
+        // Dead reckoning (inertial-drift): 1 m at 0.05 m/s^2 takes sqrt(2 / 0.05) = 6.3 s.
+        let f = check(&sheet(
+            "[claim]\nhands_free = true\naltitude_hold = true\nflight_time = \"10 s\"\n[sensing]\ngyroscope = true\naccelerometer = true",
+        ));
+        let t = f
+            .figure("height_drift_time", Some(Tier::Typical))
+            .unwrap()
+            .value;
+        assert!((t - 6.32).abs() < 0.01);
+        assert_eq!(f.verdict, Verdict::Doubtful);
+        let f = check(&sheet(
+            "[claim]\nhands_free = true\nposition_hold = true\nflight_time = \"5 min\"\n[sensing]\ngyroscope = true\naccelerometer = true\nbarometer = true",
+        ));
+        assert_eq!(f.verdict, Verdict::Implausible);
+        let f = check(&sheet(
+            "[claim]\nhands_free = true\nposition_hold = true\n[sensing]\ngyroscope = true\naccelerometer = true\nposition = \"optical-flow\"",
+        ));
+        assert_eq!(f.verdict, Verdict::Consistent);
+    }
+
+    #[test]
+    fn unknown_sensors_are_not_assessed() {
+        let f = check(&sheet("[claim]\nhands_free = true"));
+        assert_eq!(f.verdict, Verdict::NotAssessed);
+        assert!(f.headline.contains("sensing.gyroscope"));
+    }
+}
