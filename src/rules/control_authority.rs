@@ -84,7 +84,7 @@ impl Analysis {
     fn failures(&self, size: usize) -> Option<FailureTable> {
         let n = self.placements.len();
         let columns = n + self.placements.iter().filter(|p| p.tilt.is_some()).count();
-        let sets: Vec<Vec<usize>> = (1..=size.min(n - 1))
+        let sets: Vec<Vec<usize>> = (1..=size.min(n.saturating_sub(1)))
             .flat_map(|k| control::combinations(n, k))
             .collect();
         let normals = sets.len() as f64 * (columns as f64).powi(3) / 6.0;
@@ -98,6 +98,17 @@ impl Analysis {
             })
             .collect()
     }
+}
+
+const NEEDS_THRUST: &str = "a per-rotor thrust (rotors.max_thrust), a motor class (rotors.motor), or power and diameter (rotors.max_power and rotors.diameter)";
+
+/// How many rotors lost at once the failure table goes up to: the claimed
+/// tolerance, and at least one (two for six or more rotors), at most four.
+fn failure_search(claim: &Claim, n: usize) -> usize {
+    let usual = if n >= 6 { 2 } else { 1 };
+    (claim.claim.survives_rotor_failure as usize)
+        .max(usual)
+        .min(LOST_KEYS.len())
 }
 
 /// The analysis, or the fields the sheet would need for it.
@@ -235,16 +246,8 @@ pub fn check(claim: &Claim) -> Finding {
         };
     }
     let Some(thrust) = an.thrust else {
-        let mut f = Finding::not_assessed(
-            ID,
-            "a per-rotor thrust (rotors.max_thrust), a motor class (rotors.motor), or power and diameter (rotors.max_power and rotors.diameter)",
-        );
-        f.headline = format!(
-            "Its actuators can command all four axes, but the margin is not assessed: {}",
-            f.headline
-                .trim_start_matches("Not assessed: ")
-                .replacen("the sheet", "The sheet", 1)
-        );
+        let mut f = Finding::not_assessed(ID, NEEDS_THRUST);
+        f.headline = format!("Its actuators can command all four axes, but the margin is not assessed: the sheet does not give {NEEDS_THRUST}.");
         f.figures.push(rank);
         return f;
     };
@@ -252,14 +255,15 @@ pub fn check(claim: &Claim) -> Finding {
     // 2. ACAI intact and with rotors lost, per tier.
     let intact = Tier::ALL.map(|t| an.acai(t, &[]).unwrap_or(f64::NAN));
     let claimed = claim.claim.survives_rotor_failure as usize;
-    let searched = claimed.max(if n >= 6 { 2 } else { 1 }).min(LOST_KEYS.len());
+    let searched = failure_search(claim, n);
     let table = an.failures(searched);
-    if claimed > 0 && table.as_ref().is_none_or(|_| claimed > searched) {
+    if claimed > searched || (claimed > 0 && table.is_none()) {
         let mut f = Finding::not_assessed(ID, "a craft small enough to search every combination of lost rotors (up to four lost, about 16 rotors)");
         f.headline = format!("Not assessed: the claim to survive {claimed} lost rotors needs more combinations searched than this screen does.");
         f.figures.push(rank);
         return f;
     }
+    let searched = if table.is_some() { searched } else { 0 };
     let table = table.unwrap_or_default();
     let claimed_sets = || table.iter().filter(|(s, _)| s.len() <= claimed);
     let passes = |t: Tier| {
@@ -375,8 +379,8 @@ pub fn check(claim: &Claim) -> Finding {
         }
     };
     assumptions.push(format!(
-        "Rotor thrust between zero and the thrust-margin estimate at each tier; a lost rotor gives none. Failure sets searched: up to {searched} rotor{} lost.",
-        if searched > 1 { "s" } else { "" }
+        "Rotor thrust between zero and the thrust-margin estimate at each tier; a lost rotor gives none. Failure sets searched: up to {searched} rotor{} lost at once.",
+        if searched == 1 { "" } else { "s" }
     ));
     Finding {
         rule: ID,
@@ -426,7 +430,7 @@ pub fn layout_view(claim: &Claim, lost: &[usize]) -> Option<LayoutView> {
     let share = an.weight / an.placements.len() as f64;
     let e = control::effectiveness(&an.placements, share, an.torque_ratio(Tier::Typical));
     let authority = control::authority(&e.without(&lost));
-    let size = if an.placements.len() >= 6 { 2 } else { 1 };
+    let size = failure_search(claim, an.placements.len());
     let failures = match an.thrust {
         Some(_) => an.failures(size).unwrap_or_default(),
         None => Vec::new(),
