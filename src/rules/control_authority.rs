@@ -26,8 +26,9 @@ pub const ID: &str = "control-authority";
 pub const TITLE: &str = "Control authority";
 pub const METHOD: &str = "Each actuator's effect on thrust, roll, pitch and yaw at hover makes one column of the control-effectiveness matrix: a rotor at (x, y, z) spinning s (+1 clockwise seen from above) gives [1, y, -x, s k] per newton, with k the propeller's drag torque per thrust; a tilt actuator with hinge h gives T_h [0, r x d + s k d] with d = h x z, linearised at the hover thrust T_h = W / n, so a tilting rotor pitches the craft only through its height above the centre of mass. The rank of the matrix (SVD, relative tolerance 1e-9) says which axes can be commanded; fewer than four is impossible. The available control authority index (ACAI, Du, Quan, Yang, Cai 2015) is the signed distance from the hover point (W, 0, 0, 0) to the boundary of the set of forces and moments the actuators can make with each rotor between 0 and its maximum thrust and each tilt within its range: for every three independent columns, the support of the set along the normal of their span, less the hover point's offset from the set's centre along it; the least of these. ACAI <= 0 at the physical limit is impossible, at best practice implausible; at the typical tier it must exceed the moment of a typical thrust mismatch (5 % of one rotor's hover thrust on its lever) or the claim is doubtful. A claimed rotor-failure tolerance of k is judged the same way on the ACAI with every set of up to k rotors stopped.";
 
-/// Failure sets are searched while this many face normals suffice (crafts up to about 16 rotors).
-const SEARCH_BUDGET: f64 = 2e6;
+/// The most work (ACAI evaluations x face normals x generators) the rule does for one
+/// sheet: the intact ACAI for up to about 40 actuators, the failure table for fewer.
+const SEARCH_BUDGET: f64 = 4e6;
 /// Figure keys of the worst ACAI with one, two, ... rotors lost.
 const LOST_KEYS: [&str; 4] = [
     "acai_one_rotor_lost",
@@ -80,15 +81,20 @@ impl Analysis {
             .fold(0.0, f64::max)
     }
 
+    /// Whether `cases` ACAIs (each over every three of c columns) fit the budget.
+    fn affordable(&self, cases: usize) -> bool {
+        let c = (self.placements.len()
+            + self.placements.iter().filter(|p| p.tilt.is_some()).count()) as f64;
+        cases as f64 * c * c * c * c / 6.0 <= SEARCH_BUDGET
+    }
+
     /// Every set of up to `size` lost rotors, if the search fits the budget.
     fn failures(&self, size: usize) -> Option<FailureTable> {
         let n = self.placements.len();
-        let columns = n + self.placements.iter().filter(|p| p.tilt.is_some()).count();
         let sets: Vec<Vec<usize>> = (1..=size.min(n.saturating_sub(1)))
             .flat_map(|k| control::combinations(n, k))
             .collect();
-        let normals = sets.len() as f64 * (columns as f64).powi(3) / 6.0;
-        if normals > SEARCH_BUDGET {
+        if !self.affordable(3 * sets.len()) {
             return None;
         }
         sets.into_iter()
@@ -100,6 +106,7 @@ impl Analysis {
     }
 }
 
+const SEARCH_LIMIT: &str = "A control-allocation study beyond this screen's search limit; the rank above holds regardless.";
 const NEEDS_THRUST: &str = "a per-rotor thrust (rotors.max_thrust), a motor class (rotors.motor), or power and diameter (rotors.max_power and rotors.diameter)";
 
 /// How many rotors lost at once the failure table goes up to: the claimed
@@ -252,18 +259,30 @@ pub fn check(claim: &Claim) -> Finding {
         return f;
     };
 
-    // 2. ACAI intact and with rotors lost, per tier.
-    let intact = Tier::ALL.map(|t| an.acai(t, &[]).unwrap_or(f64::NAN));
+    if !an.affordable(3) {
+        let mut f = Finding::not_assessed(
+            ID,
+            "fewer actuators (this screen searches up to about 40 rotor thrusts and tilts)",
+        );
+        f.headline = "Its actuators can command all four axes; the margin is not assessed: it has more actuators than this screen searches.".to_string();
+        f.would_take = SEARCH_LIMIT.to_string();
+        f.figures.push(rank);
+        return f;
+    }
+
+    // 2. ACAI with rotors lost and intact, per tier.
     let claimed = claim.claim.survives_rotor_failure as usize;
     let searched = failure_search(claim, n);
     let table = an.failures(searched);
     if claimed > searched || (claimed > 0 && table.is_none()) {
         let mut f = Finding::not_assessed(ID, "a craft small enough to search every combination of lost rotors (up to four lost, about 16 rotors)");
         f.headline = format!("Not assessed: the claim to survive {claimed} lost rotors needs more combinations searched than this screen does.");
+        f.would_take = SEARCH_LIMIT.to_string();
         f.figures.push(rank);
         return f;
     }
     let searched = if table.is_some() { searched } else { 0 };
+    let intact = Tier::ALL.map(|t| an.acai(t, &[]).unwrap_or(f64::NAN));
     let table = table.unwrap_or_default();
     let claimed_sets = || table.iter().filter(|(s, _)| s.len() <= claimed);
     let passes = |t: Tier| {
@@ -706,5 +725,26 @@ mod tests {
         let f = check(&sheet("layout = \"octo\"\narm = \"300 mm\"\nmax_thrust = \"600 g\"\nmount = \"tilting\"\ntilt_range = \"20 deg\"", "[claim]\nsurvives_rotor_failure = 2"));
         assert!(f.figures.iter().all(|g| g.value.is_finite()));
         assert_ne!(f.verdict, Verdict::NotAssessed, "{}", f.headline);
+    }
+
+    #[test]
+    fn a_craft_beyond_the_search_limit_keeps_its_rank_but_is_not_assessed() {
+        let ring: String = (0..64)
+            .map(|i| {
+                let a = f64::from(i) * std::f64::consts::TAU / 64.0;
+                let spin = ["cw", "ccw"][i as usize % 2];
+                format!(
+                    "[[rotors.at]]\nx = \"{:.1} mm\"\ny = \"{:.1} mm\"\nspin = \"{spin}\"\n",
+                    1000.0 * a.cos(),
+                    1000.0 * a.sin()
+                )
+            })
+            .collect();
+        let f = check(&sheet(
+            &format!("layout = \"custom\"\ncount = 64\nmax_thrust = \"100 g\"\n{ring}"),
+            "",
+        ));
+        assert_eq!(f.verdict, Verdict::NotAssessed, "{}", f.headline);
+        assert_eq!(f.figure("rank", None).unwrap().value, 4.0);
     }
 }
