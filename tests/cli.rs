@@ -111,6 +111,7 @@ fn json_output_follows_the_report_contract() {
         "endurance",
         "battery_specific_energy",
         "time_to_tip",
+        "rank",
     ] {
         assert!(keys.contains(&key), "{key}");
     }

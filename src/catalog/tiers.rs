@@ -188,6 +188,23 @@ pub const LEVEL_ERROR: Row = row(
         "accelerometer levelling to a fraction of a degree, mounting error about 1 deg",
     ),
 );
+pub const REACTIVE_TORQUE: Row = row(
+    "reactive_torque_ratio",
+    "Propeller drag torque per thrust, as a fraction of the rotor diameter (Q / (T D))",
+    "1",
+    [0.08, 0.08, 0.06],
+    Basis::FromMemory(
+        "static hobby propellers have C_P / C_T about 0.4-0.5, so Q / T = C_P D / (2 pi C_T) \
+         is about 0.06-0.08 D; no law bounds it, so the generous tiers take the upper end",
+    ),
+);
+pub const TRI_SERVO_RANGE: Row = row(
+    "tri_servo_range",
+    "Tilt either way of a tricopter's yaw servo, when the sheet gives none",
+    "deg",
+    [30.0, 30.0, 30.0],
+    Basis::CommonPractice("tricopter tail servos swing the motor about 30 deg either way"),
+);
 
 /// The whole table, in the order the methods page prints it.
 pub const TABLE: &[&Row] = &[
@@ -206,6 +223,8 @@ pub const TABLE: &[&Row] = &[
     &GYRO_DRIFT,
     &ACCEL_BIAS,
     &LEVEL_ERROR,
+    &REACTIVE_TORQUE,
+    &TRI_SERVO_RANGE,
 ];
 
 /// The figure of merit for a rotor of this diameter at this tier.
@@ -252,6 +271,8 @@ mod tests {
             &DEPTH_OF_DISCHARGE,
             &HOVER_FRACTION_MAX,
             &BODY_DRAG,
+            &REACTIVE_TORQUE,
+            &TRI_SERVO_RANGE,
         ];
         for r in falling {
             assert!(

@@ -38,6 +38,8 @@ pub const DEMOS: &[Demo] = demos![
     "cargo-octo",
     "hallway-hold",
     "super-cell-claim",
+    "survivor-hex",
+    "tilt-rotor-bicopter",
     "mystery-listing",
 ];
 

@@ -5,5 +5,6 @@
 pub mod atmosphere;
 pub mod battery;
 pub mod body;
+pub mod control;
 pub mod drag;
 pub mod rotor;

@@ -17,6 +17,7 @@ use uom::si::{
 };
 
 use super::common::{self, fixed, per_tier, sig3};
+use super::thrust_margin;
 use crate::catalog::tiers::{self, Tier, AVIONICS_POWER, DEPTH_OF_DISCHARGE};
 use crate::catalog::{self, Chemistry, Drive};
 use crate::claim::{Claim, Layout};
@@ -347,12 +348,24 @@ fn would_take(
         }
     }
     let capacity: ElectricCharge = Energy::new::<watt_hour>(e * hi.get::<kilogram>()) / pack_v;
+    let take_off = airframe + hi;
+    // The heavier craft must still be lifted: say so when the rotors would fall short.
+    let lift_note = thrust_margin::estimate(claim, &frame.air)
+        .map(|est| est.available[Tier::Typical as usize] * (f64::from(claim.rotors.count) * 0.7))
+        .filter(|hover_limit| take_off * frame.air.gravity > *hover_limit)
+        .map(|hover_limit| {
+            format!(
+                "; the rotors then need more thrust too: they hover at most {} at 70 % of typical thrust",
+                thrust_margin::lift(hover_limit)
+            )
+        })
+        .unwrap_or_default();
     format!(
-        "A battery of about {} mAh at this voltage ({} g of ordinary {} cells, {} g take-off mass).",
+        "A battery of about {} mAh at this voltage ({} g of ordinary {} cells, {} g take-off mass){lift_note}.",
         sig3(capacity.get::<milliampere_hour>()),
         sig3(hi.get::<gram>()),
         chem.id,
-        sig3((airframe + hi).get::<gram>())
+        sig3(take_off.get::<gram>())
     )
 }
 

@@ -3,6 +3,7 @@
 //! no panics.
 
 pub mod common;
+pub mod control_authority;
 pub mod energy_budget;
 pub mod sensing;
 pub mod thrust_margin;
@@ -37,6 +38,7 @@ pub const REGISTRY: &[Rule] = &[
     rule!(tilt_equilibrium),
     rule!(energy_budget),
     rule!(sensing),
+    rule!(control_authority),
 ];
 
 /// Runs every rule and gathers the report.

@@ -16,7 +16,7 @@ use uom::si::{
 use super::common::{self, fixed, per_tier, sig3};
 use crate::catalog::tiers::{Tier, ACCEL_BIAS, GYRO_DRIFT, LEVEL_ERROR, THRUST_MISMATCH};
 use crate::claim::{Claim, PositionSensor};
-use crate::physics::body;
+use crate::physics::{body, control};
 use crate::report::{Figure, Finding, Verdict};
 
 pub const ID: &str = "sensing";
@@ -43,37 +43,60 @@ struct Part {
     fix: Option<String>,
 }
 
-/// The lever of a rotor about the axis the craft tips on, and the inertia about it.
-fn tipping_geometry(claim: &Claim) -> Option<(Length, MomentOfInertia, &'static str)> {
+/// How the craft tips fastest: the lever of the rotor farthest from a body axis
+/// about that axis, the inertia about it, and what the inertia was worked from.
+struct Tipping {
+    lever: Length,
+    inertia: MomentOfInertia,
+    shape: &'static str,
+}
+
+/// The fastest-tipping axis. Rotor positions come from the layout (the same
+/// placements the control-authority rule uses), else from `rotors.arm`, else from
+/// the body's edge; the inertia is that of a box of the stated size, else of a
+/// flat plate spanning the rotors.
+fn tipping(claim: &Claim) -> Option<Tipping> {
     let m = claim.craft.mass;
-    let arm = claim.rotors.arm;
-    match (arm, claim.craft.size) {
-        (Some(arm), Some(size)) => {
-            // Tips fastest about the axis with less inertia: roll uses width, pitch length.
-            let roll = body::box_inertia(m, size.width, size.height);
-            let pitch = body::box_inertia(m, size.length, size.height);
-            Some((arm, roll.min(pitch), "a solid box of the stated size"))
+    let zero = Length::new::<meter>(0.0);
+    let placed = control::placements(&claim.rotors);
+    // Largest lever about the roll (x) axis is the largest |y|, about pitch the largest |x|.
+    let (roll_lever, pitch_lever) = match (&placed, claim.rotors.arm) {
+        (Some(p), _) if p.len() >= 2 => (
+            p.iter().map(|r| r.y.abs()).fold(zero, Length::max),
+            p.iter().map(|r| r.x.abs()).fold(zero, Length::max),
+        ),
+        (_, Some(arm)) => (arm, arm),
+        (_, None) if claim.rotors.count >= 2 => {
+            let size = claim.craft.size?;
+            (size.width * 0.5, size.length * 0.5)
         }
-        (Some(arm), None) => {
-            // No size: a flat square plate spanning the rotors, 2 arm on a side.
-            let side = arm * 2.0;
-            Some((
-                arm,
-                body::box_inertia(m, side, Length::new::<meter>(0.0)),
-                "a flat square plate spanning the rotors (craft.size not given)",
-            ))
-        }
-        (None, Some(size)) if claim.rotors.count >= 2 => Some((
-            size.width.min(size.length) * 0.5,
-            body::box_inertia(m, size.width, size.height).min(body::box_inertia(
-                m,
-                size.length,
-                size.height,
-            )),
-            "a solid box of the stated size, rotors at its edge (rotors.arm not given)",
-        )),
-        _ => None,
-    }
+        _ => return None,
+    };
+    let (roll_inertia, pitch_inertia, shape) = match claim.craft.size {
+        Some(size) => (
+            body::box_inertia(m, size.width, size.height),
+            body::box_inertia(m, size.length, size.height),
+            "a solid box of the stated size",
+        ),
+        None => (
+            body::box_inertia(m, roll_lever * 2.0, zero),
+            body::box_inertia(m, pitch_lever * 2.0, zero),
+            "a flat plate spanning the rotors (craft.size not given)",
+        ),
+    };
+    // alpha = M / I with M proportional to the lever: the larger lever / I tips first.
+    let roll_rate = roll_lever.value / roll_inertia.value.max(f64::MIN_POSITIVE);
+    let pitch_rate = pitch_lever.value / pitch_inertia.value.max(f64::MIN_POSITIVE);
+    let (lever, inertia) = if roll_rate >= pitch_rate {
+        (roll_lever, roll_inertia)
+    } else {
+        (pitch_lever, pitch_inertia)
+    };
+    (lever.value > 0.0 && inertia.value > 0.0).then_some(Tipping {
+        lever,
+        inertia,
+        shape,
+    })
 }
 
 /// How long a constant error takes to build up a drift: x = a t^2 / 2 -> t = sqrt(2 x / a) (`inertial-drift`).
@@ -109,18 +132,21 @@ pub fn check(claim: &Claim) -> Finding {
     )];
 
     // Time to tip from a thrust mismatch, from rest, at constant moment.
-    let geometry = tipping_geometry(claim);
-    let tip = geometry.map(|(arm, inertia, shape)| {
-        assumptions.push(format!("Moment of inertia of {shape}."));
+    let tip = tipping(claim).map(|g| {
+        assumptions.push(format!(
+            "Moment of inertia of {}; lever of the farthest rotor {} mm.",
+            g.shape,
+            sig3(g.lever.get::<uom::si::length::millimeter>())
+        ));
         figures.push(fixed(
             "moment_of_inertia",
             "Moment of inertia about the tipping axis",
-            inertia.get::<kilogram_square_meter>(),
+            g.inertia.get::<kilogram_square_meter>(),
             "kg m^2",
         ));
         Tier::ALL.map(|t| {
-            let moment: Torque = (w / n * THRUST_MISMATCH.at(t) * arm).into();
-            let alpha = body::angular_acceleration(moment, inertia);
+            let moment: Torque = (w / n * THRUST_MISMATCH.at(t) * g.lever).into();
+            let alpha = body::angular_acceleration(moment, g.inertia);
             body::time_to_turn(Angle::new::<degree>(TIP_ANGLE_DEG), alpha)
         })
     });
@@ -343,6 +369,23 @@ mod tests {
         let f = check(&sheet("[sensing]\ngyroscope = true"));
         let t = f.figure("time_to_tip", Some(Tier::Typical)).unwrap().value;
         assert!((t - 0.187).abs() < 0.002, "{t}");
+    }
+
+    #[test]
+    fn a_quad_x_tips_on_the_arm_times_sine_45_degrees() {
+        // Rotors of a quad-x sit at 45 deg to the body axes: lever = arm sin 45 deg.
+        // Square body, so roll and pitch inertia agree: I = 0.31 (0.16^2 + 0.04^2) / 12.
+        let c = parse(
+            "title = \"t\"\n[craft]\nmass = \"310 g\"\nsize = \"160 mm x 160 mm x 40 mm\"\n[rotors]\ncount = 4\nlayout = \"quad-x\"\narm = \"100 mm\"\nmax_thrust = \"300 g\"\n[sensing]\ngyroscope = true",
+            Format::Toml,
+        )
+        .unwrap();
+        let f = check(&c);
+        let inertia = 0.31 * (0.16f64.powi(2) + 0.04f64.powi(2)) / 12.0;
+        let moment = 0.05 * 0.31 * 9.806_65 / 4.0 * 0.1 * std::f64::consts::FRAC_1_SQRT_2;
+        let expected = (2.0 * 30f64.to_radians() * inertia / moment).sqrt();
+        let t = f.figure("time_to_tip", Some(Tier::Typical)).unwrap().value;
+        assert!((t - expected).abs() < 1e-9, "{t} vs {expected}");
     }
 
     #[test]

@@ -10,6 +10,7 @@ use uom::si::f64::{Force, Length, Power};
 use uom::si::{
     force::{gram_force, newton},
     length::millimeter,
+    mass::gram,
     mass_density::kilogram_per_cubic_meter,
     power::watt,
 };
@@ -392,11 +393,21 @@ fn assumptions(claim: &Claim, est: &Estimate, air: &Air) -> Vec<String> {
     if let Some((_, false)) = est.drive {
         out.push("Drive taken as brushless (rotors.drive not given).".to_string());
     }
-    if let (Some(total), true) = (claim.craft.parts_total, claim.craft.parts.is_empty()) {
-        out.push(format!(
-            "Mass from the parts list: {} g.",
-            sig3(total.value * 1000.0)
-        ));
+    if let Some(total) = claim.craft.parts_total {
+        let off = (total / claim.craft.mass).value - 1.0;
+        if off.abs() <= 0.05 {
+            out.push(format!(
+                "The parts list adds up to {} g, within 5 % of the mass used.",
+                sig3(total.get::<gram>())
+            ));
+        } else {
+            out.push(format!(
+                "The parts list adds up to {} g, {} % {} the stated mass: the stated mass is used.",
+                sig3(total.get::<gram>()),
+                sig3(100.0 * off.abs()),
+                if off > 0.0 { "above" } else { "below" }
+            ));
+        }
     }
     out.push(
         "Figure of merit and drive efficiency per tier from the tier table; static thrust, no forward flight."
@@ -511,6 +522,25 @@ mod tests {
         let t0 = rotor_thrust(&low, Tier::Typical).unwrap();
         let t3 = rotor_thrust(&high, Tier::Typical).unwrap();
         assert!(((t3 / t0).value - 0.9093 / 1.2250).abs() < 0.01);
+    }
+
+    #[test]
+    fn a_parts_list_is_added_up_and_compared_with_the_stated_mass() {
+        let text = "title = \"t\"\n[craft]\nmass = \"300 g\"\n[[craft.parts]]\nname = \"frame\"\nmass = \"100 g\"\n\
+                    [[craft.parts]]\nname = \"motor\"\nmass = \"30 g\"\ncount = 4\n[rotors]\ncount = 4\nmax_thrust = \"200 g\"\n";
+        let c = parse(text, Format::Toml).unwrap();
+        let f = check(&c);
+        // 100 g + 4 x 30 g = 220 g, 26.7 % below 300 g.
+        assert!(
+            f.assumptions
+                .iter()
+                .any(|a| a.contains("220 g, 26.7 % below")),
+            "{:?}",
+            f.assumptions
+        );
+        let only_parts = text.replace("mass = \"300 g\"\n[[", "[[");
+        let c = parse(&only_parts, Format::Toml).unwrap();
+        assert!((c.craft.mass.get::<gram>() - 220.0).abs() < 1e-9);
     }
 
     #[test]

@@ -91,10 +91,13 @@ pub fn check(claim: &Claim) -> Finding {
     }
 
     let est = thrust_margin::estimate(claim, &air);
+    // A level hover needs only the weight held: that is the thrust rule's finding alone.
+    let level = tilt.get::<degree>() <= 1e-9;
     let thrust_ok = |t: Tier| {
-        est.as_ref().is_none_or(|e| {
-            e.available[t as usize] * f64::from(r.count) >= thrust_needed * (1.0 - 1e-9)
-        })
+        level
+            || est.as_ref().is_none_or(|e| {
+                e.available[t as usize] * f64::from(r.count) >= thrust_needed * (1.0 - 1e-9)
+            })
     };
     let still_air = claim.conditions.wind.get::<meter_per_second>() <= 0.0;
     let balanced = residual.get::<degree>() <= 1e-9;

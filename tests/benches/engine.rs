@@ -1,0 +1,31 @@
+//! Parse, check and render for each demo claim (criterion). Target: a whole
+//! check, every rule included, under 50 microseconds median.
+
+use criterion::{criterion_group, criterion_main, Criterion};
+use std::hint::black_box;
+
+use liftaudit::claim::{self, demo};
+use liftaudit::report::render_text;
+use liftaudit::rules;
+
+fn engine(c: &mut Criterion) {
+    for d in demo::DEMOS {
+        let claim = claim::parse_any(d.text).expect("demo parses");
+        let report = rules::run_all(&claim);
+        c.bench_function(&format!("parse/{}", d.name), |b| {
+            b.iter(|| claim::parse_any(black_box(d.text)))
+        });
+        c.bench_function(&format!("check/{}", d.name), |b| {
+            b.iter(|| rules::run_all(black_box(&claim)))
+        });
+        c.bench_function(&format!("render-json/{}", d.name), |b| {
+            b.iter(|| black_box(&report).to_json())
+        });
+        c.bench_function(&format!("render-text/{}", d.name), |b| {
+            b.iter(|| render_text(black_box(&report), false))
+        });
+    }
+}
+
+criterion_group!(benches, engine);
+criterion_main!(benches);
