@@ -589,10 +589,16 @@ pub fn energy_bar(report: &Report) -> Drawing {
 pub fn rotor_layout(claim: &Claim) -> Drawing {
     const ID: &str = "fig-layout";
     const TITLE: &str = "Rotor layout, seen from above";
-    let plan = layout::plan(&claim.rotors);
-    if plan.rotors.is_empty() {
-        return Drawing::omitted(ID, TITLE, "the sheet places no rotors.");
-    }
+    let Some(plan) = layout::plan(claim).filter(|p| !p.rotors.is_empty()) else {
+        return Drawing::omitted(
+            ID,
+            TITLE,
+            &format!(
+                "the sheet does not say how its {} rotors are arranged (give rotors.layout and rotors.arm, or layout = \"custom\" with [[rotors.at]]).",
+                claim.rotors.count
+            ),
+        );
+    };
     let reach = plan
         .rotors
         .iter()
@@ -638,15 +644,16 @@ pub fn rotor_layout(claim: &Claim) -> Drawing {
             Spin::Cw => "CW",
             Spin::Ccw => "CCW",
         };
+        let tilts = if r.tilts && coaxial { " tilts" } else { "" };
         let label = if coaxial {
-            format!(
-                "{} {} {spin}",
-                i + 1,
-                if i == 0 { "upper" } else { "lower" }
-            )
+            let level = if i == 0 { "upper" } else { "lower" };
+            format!("{} {level} {spin}{tilts}", i + 1)
         } else {
             format!("{} {spin}", i + 1)
         };
+        if r.tilts && !coaxial {
+            svg.text((c.0, c.1 + rad + 12.0), "middle", 10.5, INK, "tilts");
+        }
         let at = if coaxial {
             (centre.0 + rad + 4.0, c.1 - rad + 12.0 + 14.0 * i as f64)
         } else {
@@ -667,7 +674,20 @@ pub fn rotor_layout(claim: &Claim) -> Drawing {
         if plan.rotors.len() == 1 { "" } else { "s" }
     );
     if plan.arm_assumed {
-        caption.push_str(" The sheet gives no arm length, so positions are drawn to a 100 mm arm.");
+        caption.push_str(&format!(
+            " The sheet gives no arm length, so positions are drawn to a {} mm arm.",
+            layout::STAND_IN_ARM_MM
+        ));
+    }
+    if plan.rotors.iter().any(|r| r.tilts) {
+        caption.push_str(" Rotors marked \"tilts\" have a tilt actuator.");
+    }
+    if !plan.lacking.is_empty() {
+        let axes: Vec<&str> = plan.lacking.iter().map(|a| a.id()).collect();
+        caption.push_str(&format!(
+            " At hover these rotors cannot command: {}.",
+            axes.join(", ")
+        ));
     }
     if plan.diameter.is_none() {
         caption.push_str(" The sheet gives no rotor diameter; dashed discs are not to scale.");
