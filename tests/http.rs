@@ -4,6 +4,7 @@
 
 mod common;
 
+use std::sync::OnceLock;
 use std::time::Duration;
 
 use axum::body::Body;
@@ -19,8 +20,11 @@ use liftaudit::rules;
 use liftaudit::sources;
 use liftaudit::web;
 
+/// One router for the whole file: building it checks every demo, which is
+/// the slow part in a debug build.
 fn app() -> Router {
-    web::app(web::Config::default())
+    static APP: OnceLock<Router> = OnceLock::new();
+    APP.get_or_init(|| web::app(web::Config::default())).clone()
 }
 
 struct Answer {
