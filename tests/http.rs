@@ -167,7 +167,8 @@ async fn a_preset_round_trips_through_the_form_to_the_same_verdict_as_the_engine
 #[tokio::test]
 async fn every_demo_page_shows_its_verdict_findings_links_and_cautions() {
     for d in demo::DEMOS {
-        let report = rules::run_all(&claim::parse_any(d.text).unwrap());
+        let claim = claim::parse_any(d.text).unwrap();
+        let report = rules::run_all(&claim);
         let a = get(&format!("/demo/{}", d.name)).await;
         assert_eq!(a.status, StatusCode::OK, "{}", d.name);
         assert_eq!(
@@ -198,6 +199,13 @@ async fn every_demo_page_shows_its_verdict_findings_links_and_cautions() {
         }
         // The rotor layout always comes from the sheet; no inline style or script.
         assert!(a.body.contains("id=\"fig-layout\""));
+        // A claimed tolerance of rotor failure gets the stopped-rotor drawing.
+        assert_eq!(
+            a.body.contains("id=\"fig-failure\""),
+            claim.claim.survives_rotor_failure > 0,
+            "{}",
+            d.name
+        );
         assert!(a.body.matches("<svg xmlns").count() >= 1);
         assert!(!a.body.contains("style=\""), "inline style on {}", d.name);
         assert!(!a.body.contains("<script"), "script on {}", d.name);

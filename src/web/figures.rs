@@ -41,12 +41,15 @@ impl Drawing {
 
 /// Every drawing of a report, in page order.
 pub fn all(report: &Report, claim: &Claim) -> Vec<Drawing> {
-    vec![
+    [
         free_body(report, claim),
         thrust_bar(report),
         energy_bar(report),
         rotor_layout(claim),
     ]
+    .into_iter()
+    .chain(rotor_failure(claim))
+    .collect()
 }
 
 const INK: &str = "#1f2430";
@@ -599,6 +602,90 @@ pub fn rotor_layout(claim: &Claim) -> Drawing {
             ),
         );
     };
+    let (svg, scale_note) = draw_plan(&plan, None);
+    let mut caption = format!(
+        "Top view, to scale ({scale_note} per bar), front up: {} rotor{}, numbered from the nose clockwise, each marked with its spin as seen from above.",
+        plan.rotors.len(),
+        if plan.rotors.len() == 1 { "" } else { "s" }
+    );
+    if plan.arm_assumed {
+        caption.push_str(&format!(
+            " The sheet gives no arm length, so positions are drawn to a {} mm arm.",
+            layout::STAND_IN_ARM_MM
+        ));
+    }
+    if plan.diameter.is_none() {
+        caption.push_str(" The sheet gives no rotor diameter; dashed discs are not to scale.");
+    }
+    if claim.rotors.spins.is_none() && claim.rotors.at.is_empty() {
+        caption.push_str(" Spins are not stated; the usual alternating pattern is drawn.");
+    }
+    if plan.rotors.iter().any(|r| r.tilts) {
+        caption.push_str(" Rotors marked \"tilts\" have a tilt actuator.");
+    }
+    if !plan.lacking.is_empty() {
+        let axes: Vec<&str> = plan.lacking.iter().map(|a| a.id()).collect();
+        caption.push_str(&format!(
+            " At hover these rotors cannot command: {}.",
+            axes.join(", ")
+        ));
+    }
+    Drawing {
+        id: ID,
+        title: TITLE,
+        svg: Some(svg.finish(ID, TITLE, &caption)),
+        caption,
+    }
+}
+
+/// An available control authority index this close to zero counts as zero.
+const ZERO_AUTHORITY: f64 = 1e-6;
+
+/// For a claim that it survives a rotor failure: the layout with the worst
+/// single loss stopped, and whether the rest can still hold a hover.
+pub fn rotor_failure(claim: &Claim) -> Option<Drawing> {
+    const ID: &str = "fig-failure";
+    const TITLE: &str = "If the worst rotor stops";
+    if claim.claim.survives_rotor_failure == 0 {
+        return None;
+    }
+    let plan = layout::plan(claim).filter(|p| p.rotors.len() > 1)?;
+    let Some((lost, acai)) = layout::worst_single_loss(claim) else {
+        return Some(Drawing::omitted(
+            ID,
+            TITLE,
+            "the control-authority check could not search rotor failures for this sheet.",
+        ));
+    };
+    let (svg, scale_note) = draw_plan(&plan, Some(lost));
+    let typical = acai[2];
+    // An index within rounding of zero is zero: no margin at all for some moment.
+    let caption = if typical > ZERO_AUTHORITY {
+        format!(
+            "Top view ({scale_note} per bar) with rotor {lost} stopped, the loss that hurts most. The rest can still hold a hover: their available control authority index (Du et al. 2015) stays at {} with typical hardware.",
+            number(typical)
+        )
+    } else {
+        let index = if typical.abs() <= ZERO_AUTHORITY {
+            "zero".to_string()
+        } else {
+            format!("{}, below zero", number(typical))
+        };
+        format!(
+            "Top view ({scale_note} per bar) with rotor {lost} stopped, the loss that hurts most. The rest cannot hold a hover: their available control authority index (Du et al. 2015) is {index} with typical hardware, so some moment the craft needs is out of reach."
+        )
+    };
+    Some(Drawing {
+        id: ID,
+        title: TITLE,
+        svg: Some(svg.finish(ID, TITLE, &caption)),
+        caption,
+    })
+}
+
+/// Draws a plan from above; `lost` (numbered from 1) is drawn stopped.
+/// Returns the picture and the length its scale bar stands for.
+fn draw_plan(plan: &layout::Plan, lost: Option<usize>) -> (Svg, String) {
     let reach = plan
         .rotors
         .iter()
@@ -636,13 +723,22 @@ pub fn rotor_layout(claim: &Claim) -> Drawing {
     svg.rect(centre.0 - 9.0, centre.1 - 9.0, 18.0, 18.0, INK, INK);
     for (i, r) in plan.rotors.iter().enumerate() {
         let c = to_page(r.x, r.y);
+        let stopped = lost == Some(i + 1);
         let shrink = if coaxial { 1.0 - 0.28 * i as f64 } else { 1.0 };
         let rad = (radius_m * scale * shrink).max(6.0);
-        svg.circle(c, rad, DISC, THRUST, plan.diameter.is_none());
-        spin_arrow(&mut svg, c, rad * 0.72, r.spin);
-        let spin = match r.spin {
-            Spin::Cw => "CW",
-            Spin::Ccw => "CCW",
+        if stopped {
+            svg.circle(c, rad, PAPER, FORCE, true);
+            let d = rad * 0.6;
+            svg.line((c.0 - d, c.1 - d), (c.0 + d, c.1 + d), FORCE, 2.5, false);
+            svg.line((c.0 - d, c.1 + d), (c.0 + d, c.1 - d), FORCE, 2.5, false);
+        } else {
+            svg.circle(c, rad, DISC, THRUST, plan.diameter.is_none());
+            spin_arrow(&mut svg, c, rad * 0.72, r.spin);
+        }
+        let spin = match (stopped, r.spin) {
+            (true, _) => "stopped",
+            (false, Spin::Cw) => "CW",
+            (false, Spin::Ccw) => "CCW",
         };
         let tilts = if r.tilts && coaxial { " tilts" } else { "" };
         let label = if coaxial {
@@ -656,51 +752,20 @@ pub fn rotor_layout(claim: &Claim) -> Drawing {
         }
         let at = if coaxial {
             (centre.0 + rad + 4.0, c.1 - rad + 12.0 + 14.0 * i as f64)
+        } else if stopped {
+            (c.0, c.1 + rad + 13.0)
         } else {
             (c.0, c.1 + 4.0)
         };
         let anchor = if coaxial { "start" } else { "middle" };
-        svg.text(at, anchor, 11.0, INK, &label);
+        svg.text(at, anchor, 11.0, if stopped { FORCE } else { INK }, &label);
     }
     let step_m = nice_step(extent * 2.0);
     let bar = step_m * scale;
     svg.line((300.0 - bar, 305.0), (300.0, 305.0), INK, 2.0, false);
     let step_label = format!("{} mm", number(step_m * 1000.0));
     svg.text((300.0, 298.0), "end", 11.0, INK, &step_label);
-
-    let mut caption = format!(
-        "Top view, to scale ({step_label} per bar), front up: {} rotor{}, numbered from the nose clockwise, each marked with its spin as seen from above.",
-        plan.rotors.len(),
-        if plan.rotors.len() == 1 { "" } else { "s" }
-    );
-    if plan.arm_assumed {
-        caption.push_str(&format!(
-            " The sheet gives no arm length, so positions are drawn to a {} mm arm.",
-            layout::STAND_IN_ARM_MM
-        ));
-    }
-    if plan.rotors.iter().any(|r| r.tilts) {
-        caption.push_str(" Rotors marked \"tilts\" have a tilt actuator.");
-    }
-    if !plan.lacking.is_empty() {
-        let axes: Vec<&str> = plan.lacking.iter().map(|a| a.id()).collect();
-        caption.push_str(&format!(
-            " At hover these rotors cannot command: {}.",
-            axes.join(", ")
-        ));
-    }
-    if plan.diameter.is_none() {
-        caption.push_str(" The sheet gives no rotor diameter; dashed discs are not to scale.");
-    }
-    if claim.rotors.spins.is_none() && claim.rotors.at.is_empty() {
-        caption.push_str(" Spins are not stated; the usual alternating pattern is drawn.");
-    }
-    Drawing {
-        id: ID,
-        title: TITLE,
-        svg: Some(svg.finish(ID, TITLE, &caption)),
-        caption,
-    }
+    (svg, step_label)
 }
 
 /// A three-quarter arc with an arrowhead, turning the way the rotor spins on
@@ -844,6 +909,38 @@ mod tests {
         let report = Report::new("t".into(), vec![finding("energy-budget", e)]);
         let svg = energy_bar(&report).svg.unwrap();
         assert!(svg.contains("needed 1.50 Wh"), "{svg}");
+    }
+
+    #[test]
+    fn a_claimed_rotor_failure_on_a_quad_is_drawn_with_the_worst_rotor_stopped() {
+        // Du, Quan, Yang, Cai (2015): a quadrotor that loses any rotor has ACAI < 0,
+        // so the drawing must say the rest cannot hold a hover.
+        let claim = sheet("max_thrust = \"600 g\"\n[claim]\nsurvives_rotor_failure = 1");
+        let d = rotor_failure(&claim).expect("drawn for a claimed failure");
+        assert!(
+            d.svg.as_ref().unwrap().contains(" stopped</text>"),
+            "{:?}",
+            d.svg
+        );
+        assert!(d.caption.contains("cannot hold a hover"), "{}", d.caption);
+        assert!(rotor_failure(&sheet("max_thrust = \"600 g\"")).is_none());
+    }
+
+    #[test]
+    fn an_alternating_hexacopter_that_loses_a_rotor_has_zero_authority_left() {
+        // Du, Quan, Yang, Cai (2015), their hexacopter (m = 1.535 kg, arm 0.275 m,
+        // rotor thrust up to 6.125 N): with spins P N P N P N the ACAI is 0 once
+        // any one rotor is lost.
+        let text = "title = \"du\"\n[craft]\nmass = \"1.535 kg\"\n[rotors]\nlayout = \"hex\"\n\
+                    arm = \"275 mm\"\ndiameter = \"10 in\"\nmax_thrust = \"6.125 N\"\n\
+                    [claim]\nsurvives_rotor_failure = 1";
+        let claim = claim::parse(text, Format::Toml).unwrap();
+        let d = rotor_failure(&claim).unwrap();
+        assert!(
+            d.caption.contains("index (Du et al. 2015) is zero"),
+            "{}",
+            d.caption
+        );
     }
 
     #[test]

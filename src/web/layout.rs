@@ -93,6 +93,19 @@ pub fn plan(claim: &Claim) -> Option<Plan> {
     })
 }
 
+/// The single rotor (numbered from 1) whose loss leaves the least control
+/// authority at the typical tier, with the ACAI at each tier after losing it
+/// (Du, Quan, Yang, Cai 2015: below zero, hover cannot be held). `None` when
+/// the rule could not search failures.
+pub fn worst_single_loss(claim: &Claim) -> Option<(usize, [f64; 3])> {
+    let view = control_authority::layout_view(claim, &[])?;
+    view.failures
+        .iter()
+        .filter(|f| f.lost.len() == 1 && f.acai.iter().all(|a| a.is_finite()))
+        .min_by(|a, b| a.acai[2].total_cmp(&b.acai[2]))
+        .map(|f| (f.lost[0], f.acai))
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;
@@ -132,6 +145,17 @@ mod tests {
     #[test]
     fn a_count_with_no_usual_layout_is_not_placed() {
         assert!(plan(&claim_of("count = 5")).is_none());
+    }
+
+    #[test]
+    fn a_quad_that_loses_any_rotor_cannot_hold_hover() {
+        // Du, Quan, Yang, Cai (2015): a quadrotor that loses any rotor has ACAI < 0.
+        let claim = claim_of(
+            "layout = \"quad-x\"\narm = \"225 mm\"\ndiameter = \"10 in\"\nmax_thrust = \"600 g\"",
+        );
+        let (rotor, acai) = worst_single_loss(&claim).unwrap();
+        assert!((1..=4).contains(&rotor));
+        assert!(acai[2] < 0.0, "{acai:?}");
     }
 
     #[test]
