@@ -344,8 +344,10 @@ pub fn combinations(n: usize, k: usize) -> Vec<Vec<usize>> {
 
 /// Unit normal of the span of three columns in R^4 (signed 3x3 minors), if they are independent.
 fn normal(a: Vector4<f64>, b: Vector4<f64>, c: Vector4<f64>) -> Option<Vector4<f64>> {
+    // The rows left when row `skip` is struck out.
+    const ROWS: [[usize; 3]; 4] = [[1, 2, 3], [0, 2, 3], [0, 1, 3], [0, 1, 2]];
     let minor = |skip: usize| {
-        let rows: Vec<usize> = (0..4).filter(|&r| r != skip).collect();
+        let rows = ROWS[skip];
         Matrix3::from_fn(|i, j| [a, b, c][j][rows[i]]).determinant()
     };
     let n = Vector4::new(minor(0), -minor(1), minor(2), -minor(3));
@@ -369,17 +371,32 @@ pub fn acai(b: &Matrix4xX<f64>, lo: &[f64], hi: &[f64], g: Vector4<f64>) -> f64 
     let value = |xi: &Vector4<f64>| {
         gens.iter().map(|(c, r)| xi.dot(c).abs() * r).sum::<f64>() - xi.dot(&offset).abs()
     };
-    let gen_matrix = Matrix4xX::from_columns(&gens.iter().map(|(c, r)| c * *r).collect::<Vec<_>>());
-    let mut normals: Vec<Vector4<f64>> = combinations(gens.len(), 3)
-        .iter()
-        .filter_map(|s| normal(gens[s[0]].0, gens[s[1]].0, gens[s[2]].0))
-        .collect();
-    if let Some((sigma, u)) = svd(&gen_matrix) {
-        let scale = sigma.first().copied().unwrap_or(0.0);
-        let rank = sigma.iter().filter(|&&v| v > TOL * scale).count();
-        normals.extend(u[rank..].iter().copied());
+    // Every face normal from three independent generators, walked without collecting.
+    let m = gens.len();
+    let mut min = f64::INFINITY;
+    let mut faces = 0usize;
+    for i in 0..m {
+        for j in i + 1..m {
+            for k in j + 1..m {
+                if let Some(xi) = normal(gens[i].0, gens[j].0, gens[k].0) {
+                    min = min.min(value(&xi));
+                    faces += 1;
+                }
+            }
+        }
     }
-    let min = normals.iter().map(value).fold(f64::INFINITY, f64::min);
+    // With three independent generators their normals already hold the left null
+    // space (rank 3: the one normal; rank 4: none). Only below rank 3 does it take an
+    // SVD to find the directions across which the set is flat.
+    if faces == 0 {
+        let gen_matrix =
+            Matrix4xX::from_columns(&gens.iter().map(|(c, r)| c * *r).collect::<Vec<_>>());
+        if let Some((sigma, u)) = svd(&gen_matrix) {
+            let scale = sigma.first().copied().unwrap_or(0.0);
+            let rank = sigma.iter().filter(|&&v| v > TOL * scale).count();
+            min = u[rank..].iter().map(value).fold(min, f64::min);
+        }
+    }
     // Snap round-off to the exact zero of a hover point on a face (e.g. a lost rotor, `du-2015`).
     let scale: f64 = gens.iter().map(|(c, r)| c.norm() * r).sum::<f64>() + offset.norm();
     if min.abs() <= TOL * scale {

@@ -18,6 +18,11 @@ fn engine(c: &mut Criterion) {
         c.bench_function(&format!("check/{}", d.name), |b| {
             b.iter(|| rules::run_all(black_box(&claim)))
         });
+        for rule in rules::REGISTRY {
+            c.bench_function(&format!("rule/{}/{}", rule.id, d.name), |b| {
+                b.iter(|| (rule.check)(black_box(&claim)))
+            });
+        }
         c.bench_function(&format!("render-json/{}", d.name), |b| {
             b.iter(|| black_box(&report).to_json())
         });
