@@ -415,32 +415,118 @@ pub struct Hover {
     pub torque_ratio: Length,
 }
 
-/// ACAI of hovering at weight W with the rotors in `lost` stopped (thrust 0..0, tilt
-/// fixed), the others 0..T_max and tilting +-sin(range), linearised at W / n_alive (`du-2015`).
+/// The face normals of one airframe's attainable set, worked out once and reused for
+/// every set of lost rotors and every thrust bound: a lost rotor only removes its
+/// generators, and the hover thrust only scales the tilt columns, so the normal of
+/// each remaining triple of generators stays the same (`du-2015`).
+pub struct Faces {
+    /// B at a hover thrust of 1 N: tilt columns per newton of hover thrust.
+    unit: Effectiveness,
+    faces: Vec<Face>,
+}
+
+/// One face normal, the three actuators spanning it, and |xi . b_j| for every unit column.
+struct Face {
+    xi: Vector4<f64>,
+    spanned: [usize; 3],
+    dots: Vec<f64>,
+}
+
+impl Faces {
+    /// Every normal of three independent columns of the airframe's matrix.
+    pub fn new(placements: &[Placement], torque_ratio: Length) -> Faces {
+        let unit = effectiveness(placements, Force::new::<newton>(1.0), torque_ratio);
+        let b = &unit.matrix;
+        let m = b.ncols();
+        let col = |j: usize| b.column(j).into_owned();
+        let mut faces = Vec::new();
+        for i in 0..m {
+            for j in i + 1..m {
+                for k in j + 1..m {
+                    if let Some(xi) = normal(col(i), col(j), col(k)) {
+                        let dots = (0..m).map(|c| xi.dot(&b.column(c)).abs()).collect();
+                        faces.push(Face {
+                            xi,
+                            spanned: [i, j, k],
+                            dots,
+                        });
+                    }
+                }
+            }
+        }
+        Faces { unit, faces }
+    }
+
+    /// ACAI of hovering at weight W with the rotors in `lost` stopped (thrust 0..0, tilt
+    /// fixed), the others 0..T_max and tilting +-sin(range), linearised at W / n_alive
+    /// (`du-2015`): the same value as [`acai`] on that matrix and those bounds.
+    pub fn hover_acai(&self, placements: &[Placement], hover: &Hover, lost: &[usize]) -> f64 {
+        let alive = placements.len() - lost.len().min(placements.len());
+        let share = hover.weight.get::<newton>() / (alive.max(1) as f64);
+        let tmax = hover.rotor_thrust.get::<newton>();
+        let actuators = &self.unit.actuators;
+        // Each column's scale (1 for thrust, the hover share for tilt), bounds and half range.
+        let scale: Vec<f64> = actuators
+            .iter()
+            .map(|a| if a.tilt { share } else { 1.0 })
+            .collect();
+        let hi: Vec<f64> = actuators
+            .iter()
+            .map(|a| match (lost.contains(&a.rotor), a.tilt) {
+                (true, _) => 0.0,
+                (false, false) => tmax,
+                (false, true) => placements[a.rotor]
+                    .tilt
+                    .map_or(0.0, |t| t.range.sin().value),
+            })
+            .collect();
+        let lo: Vec<f64> = actuators
+            .iter()
+            .zip(&hi)
+            .map(|(a, h)| if a.tilt { -h } else { 0.0 })
+            .collect();
+        let g = Vector4::new(hover.weight.get::<newton>(), 0.0, 0.0, 0.0);
+        let b = &self.unit.matrix;
+        let centre: Vector4<f64> = (0..b.ncols())
+            .map(|j| b.column(j) * (scale[j] * (lo[j] + hi[j]) / 2.0))
+            .sum();
+        let offset = g - centre;
+        let half: Vec<f64> = (0..b.ncols())
+            .map(|j| scale[j] * (hi[j] - lo[j]) / 2.0)
+            .collect();
+        let active = |j: usize| hi[j] > lo[j];
+        let mut min = f64::INFINITY;
+        let mut faces = 0usize;
+        for f in self
+            .faces
+            .iter()
+            .filter(|f| f.spanned.iter().all(|&j| active(j)))
+        {
+            let support: f64 = f.dots.iter().zip(&half).map(|(d, r)| d * r).sum();
+            min = min.min(support - f.xi.dot(&offset).abs());
+            faces += 1;
+        }
+        if faces == 0 {
+            // Below rank 3 the flat directions need an SVD: the general routine does it.
+            let scaled = Matrix4xX::from_fn(b.ncols(), |r, c| b[(r, c)] * scale[c]);
+            return acai(&scaled, &lo, &hi, g);
+        }
+        // Snap round-off to the exact zero of a hover point on a face (e.g. a lost rotor).
+        let size: f64 = (0..b.ncols())
+            .map(|j| b.column(j).norm() * half[j])
+            .sum::<f64>()
+            + offset.norm();
+        if min.abs() <= TOL * size {
+            0.0
+        } else {
+            min
+        }
+    }
+}
+
+/// ACAI of hovering at weight W with the rotors in `lost` stopped; see [`Faces::hover_acai`].
 pub fn hover_acai(placements: &[Placement], hover: &Hover, lost: &[usize]) -> f64 {
-    let alive = placements.len() - lost.len().min(placements.len());
-    let share = hover.weight / (alive.max(1) as f64);
-    let e = effectiveness(placements, share, hover.torque_ratio);
-    let tmax = hover.rotor_thrust.get::<newton>();
-    let hi: Vec<f64> = e
-        .actuators
-        .iter()
-        .map(|a| match (lost.contains(&a.rotor), a.tilt) {
-            (true, _) => 0.0,
-            (false, false) => tmax,
-            (false, true) => placements[a.rotor]
-                .tilt
-                .map_or(0.0, |t| t.range.sin().value),
-        })
-        .collect();
-    let lo: Vec<f64> = e
-        .actuators
-        .iter()
-        .zip(&hi)
-        .map(|(a, h)| if a.tilt { -h } else { 0.0 })
-        .collect();
-    let g = Vector4::new(hover.weight.get::<newton>(), 0.0, 0.0, 0.0);
-    acai(&e.matrix, &lo, &hi, g)
+    Faces::new(placements, hover.torque_ratio).hover_acai(placements, hover, lost)
 }
 
 /// Moment of a thrust error dT on one rotor, |dT| sqrt(x^2 + y^2 + k^2) (roll, pitch
@@ -608,6 +694,81 @@ mod tests {
             torque_ratio: mm(3.0),
         };
         assert!(hover_acai(&raised, &hover, &[]) > 0.0);
+    }
+
+    /// The ACAI straight from the definition: the matrix at the hover share, the bounds
+    /// of each actuator, and the general routine, with no faces reused.
+    fn direct_acai(p: &[Placement], hover: &Hover, lost: &[usize]) -> f64 {
+        let alive = (p.len() - lost.len()) as f64;
+        let e = effectiveness(p, hover.weight / alive, hover.torque_ratio);
+        let hi: Vec<f64> = e
+            .actuators
+            .iter()
+            .map(|a| match (lost.contains(&a.rotor), a.tilt) {
+                (true, _) => 0.0,
+                (false, false) => hover.rotor_thrust.get::<newton>(),
+                (false, true) => p[a.rotor].tilt.map_or(0.0, |t| t.range.sin().value),
+            })
+            .collect();
+        let lo: Vec<f64> = e
+            .actuators
+            .iter()
+            .zip(&hi)
+            .map(|(a, h)| if a.tilt { -h } else { 0.0 })
+            .collect();
+        acai(
+            &e.matrix,
+            &lo,
+            &hi,
+            Vector4::new(hover.weight.get::<newton>(), 0.0, 0.0, 0.0),
+        )
+    }
+
+    #[test]
+    fn reused_faces_give_the_acai_of_the_definition_for_every_lost_set() {
+        // The faces of the intact set serve every lost set: a tilting octocopter with a
+        // height, and the Du et al. 2015 hexacopter, each single and pair lost.
+        let mut octo = rotors(Layout::Octo, 8, 300.0);
+        octo.mount = Mount::Tilting;
+        octo.tilt_range = Some(Angle::new::<degree>(20.0));
+        octo.height = mm(50.0);
+        let cases = [
+            (
+                placements(&octo).unwrap(),
+                Hover {
+                    weight: n(60.0),
+                    rotor_thrust: n(15.0),
+                    torque_ratio: mm(20.0),
+                },
+            ),
+            (
+                hexacopter([
+                    Spin::Cw,
+                    Spin::Cw,
+                    Spin::Ccw,
+                    Spin::Ccw,
+                    Spin::Cw,
+                    Spin::Ccw,
+                ]),
+                du_hover(),
+            ),
+        ];
+        for (p, hover) in cases {
+            let faces = Faces::new(&p, hover.torque_ratio);
+            let mut sets = vec![vec![]];
+            sets.extend(combinations(p.len(), 1));
+            sets.extend(combinations(p.len(), 2));
+            for lost in sets {
+                let (a, b) = (
+                    faces.hover_acai(&p, &hover, &lost),
+                    direct_acai(&p, &hover, &lost),
+                );
+                assert!(
+                    (a - b).abs() <= 1e-9 * (1.0 + b.abs()),
+                    "{lost:?}: {a} vs {b}"
+                );
+            }
+        }
     }
 
     #[test]

@@ -11,6 +11,8 @@
 //! at best practice; at the typical tier, ACAI above the moment of a typical
 //! thrust mismatch between rotors.
 
+use std::cell::OnceCell;
+
 use serde::Serialize;
 use uom::si::f64::{Force, Length};
 use uom::si::{length::millimeter, torque::newton_meter};
@@ -45,6 +47,8 @@ struct Analysis {
     authority: Authority,
     /// Per-rotor maximum thrust per tier, when the sheet lets it be estimated.
     thrust: Option<[Force; 3]>,
+    /// The attainable set's face normals per tier, worked out on first use.
+    faces: OnceCell<[control::Faces; 3]>,
 }
 
 /// Sets of lost rotors (0-based), with the ACAI at each tier.
@@ -61,7 +65,10 @@ impl Analysis {
             rotor_thrust: self.thrust?[t as usize],
             torque_ratio: self.torque_ratio(t),
         };
-        Some(control::hover_acai(&self.placements, &hover, lost))
+        let faces = self.faces.get_or_init(|| {
+            Tier::ALL.map(|t| control::Faces::new(&self.placements, self.torque_ratio(t)))
+        });
+        Some(faces[t as usize].hover_acai(&self.placements, &hover, lost))
     }
 
     /// The margin the ACAI must clear: none at the generous tiers; at the typical
@@ -146,6 +153,7 @@ fn analyse(claim: &Claim) -> Result<Analysis, &'static str> {
         diameter,
         authority,
         thrust,
+        faces: OnceCell::new(),
     })
 }
 
