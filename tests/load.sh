@@ -149,19 +149,27 @@ echo "wrk: $threads threads, $connections connections, $duration per route after
 echo "load average before: $(cut -d' ' -f1-3 /proc/loadavg)"
 echo
 
-declare -A rps p50 p99 errs
+# The server's own CPU time (user + system, in clock ticks), to give its cost per request: unlike
+# throughput, that does not depend on how much of the machine wrk and other work take.
+ticks=$(getconf CLK_TCK)
+server_cpu() { awk '{ print $14 + $15 }' "/proc/$server_pid/stat"; }
+
+declare -A rps p50 p99 errs cpu_us
 for entry in "${routes[@]}"; do
     IFS='|' read -r name label script url <<<"$entry"
     wrk -t"$threads" -c"$connections" -d"$warmup" -s "$script" "$url" >/dev/null
+    cpu0=$(server_cpu)
     out=$(wrk -t"$threads" -c"$connections" -d"$duration" --latency -s "$script" "$url")
+    cpu1=$(server_cpu)
     echo "$out" >"$work/wrk-$name.txt"
     read -r _ n dur l50 l99 ec er ew es et <<<"$(grep '^LOADRESULT' <<<"$out")"
     rps[$name]=$(awk -v n="$n" -v d="$dur" 'BEGIN { printf "%.0f", n / (d / 1e6) }')
     p50[$name]=$(awk -v l="$l50" 'BEGIN { printf "%.2f", l / 1000 }')
     p99[$name]=$(awk -v l="$l99" 'BEGIN { printf "%.2f", l / 1000 }')
+    cpu_us[$name]=$(awk -v c=$((cpu1 - cpu0)) -v t="$ticks" -v n="$n" 'BEGIN { printf "%.0f", c / t * 1e6 / n }')
     errs[$name]=$((ec + er + ew + es + et))
-    printf '%-7s %-48s %8s req/s  p50 %6s ms  p99 %6s ms  errors %d (connect %d, read %d, write %d, status>=400 %d, timeout %d)\n' \
-        "$name" "$label" "${rps[$name]}" "${p50[$name]}" "${p99[$name]}" "${errs[$name]}" "$ec" "$er" "$ew" "$es" "$et"
+    printf '%-7s %-48s %8s req/s  p50 %6s ms  p99 %6s ms  server CPU %4s us/req  errors %d (connect %d, read %d, write %d, status>=400 %d, timeout %d)\n' \
+        "$name" "$label" "${rps[$name]}" "${p50[$name]}" "${p99[$name]}" "${cpu_us[$name]}" "${errs[$name]}" "$ec" "$er" "$ew" "$es" "$et"
 done
 
 hwm_kib=$(awk '/^VmHWM:/ { print $2 }' "/proc/$server_pid/status")

@@ -95,7 +95,8 @@ impl Svg {
         Svg {
             width,
             height,
-            body: String::new(),
+            // A drawing's body is a few kilobytes; start there, not at zero.
+            body: String::with_capacity(4096),
         }
     }
 

@@ -58,15 +58,31 @@ impl std::fmt::Display for Fixed {
         if ((scaled - rounded).abs() - 0.5).abs() < 1e-6 {
             return write!(f, "{v:.places$}");
         }
-        let n = rounded.abs() as u64;
+        // The digits, last first, into a buffer on the stack: the
+        // formatting machinery per part cost as much as the rounding saved.
+        // n < 1e9 with at most 12 places: 13 digits, the point and a sign.
+        let mut n = rounded.abs() as u64;
+        let mut buf = [0u8; 16];
+        let mut at = buf.len();
+        let mut written = 0;
+        while n > 0 || written <= places {
+            if written == places && places > 0 {
+                at -= 1;
+                buf[at] = b'.';
+            }
+            at -= 1;
+            buf[at] = b'0' + (n % 10) as u8;
+            n /= 10;
+            written += 1;
+        }
         // The standard formatter keeps the sign of a negative value that
         // rounds to zero ("-0.0").
-        let sign = if v.is_sign_negative() { "-" } else { "" };
-        if places == 0 {
-            write!(f, "{sign}{n}")
-        } else {
-            write!(f, "{sign}{}.{:0places$}", n / unit, n % unit)
+        if v.is_sign_negative() {
+            at -= 1;
+            buf[at] = b'-';
         }
+        // Only ASCII digits, '.' and '-' were written.
+        f.write_str(std::str::from_utf8(&buf[at..]).unwrap_or("?"))
     }
 }
 
