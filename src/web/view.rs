@@ -51,7 +51,7 @@ impl std::fmt::Display for Fixed {
         // Powers of ten up to 1e22 are exact in f64; below 1e9 the product's
         // rounding error stays under 1.2e-7.
         let scaled = v * unit as f64;
-        if !(scaled.abs() < 1e9) {
+        if scaled.is_nan() || scaled.abs() >= 1e9 {
             return write!(f, "{v:.places$}");
         }
         let rounded = scaled.round();
