@@ -14,7 +14,7 @@ use crate::claim::{Claim, Spin};
 use crate::report::{Finding, Report};
 
 use super::layout;
-use super::view::number;
+use super::view::{number, Fixed};
 
 /// One drawing for the page, or the reason it is not drawn.
 #[derive(Debug, Clone)]
@@ -77,6 +77,11 @@ pub fn esc(text: &str) -> String {
     out
 }
 
+/// A coordinate as `{:.1}` writes it (see [`Fixed`]).
+fn d1(v: f64) -> Fixed {
+    Fixed(v, 1)
+}
+
 /// A tiny SVG writer: shapes with presentation attributes only (no `style`),
 /// so the page's Content-Security-Policy holds and print keeps the colours.
 struct Svg {
@@ -90,7 +95,8 @@ impl Svg {
         Svg {
             width,
             height,
-            body: String::new(),
+            // A drawing's body is a few kilobytes; start there, not at zero.
+            body: String::with_capacity(4096),
         }
     }
 
@@ -109,7 +115,11 @@ impl Svg {
         };
         let _ = write!(
             self.body,
-            "<line x1=\"{x1:.1}\" y1=\"{y1:.1}\" x2=\"{x2:.1}\" y2=\"{y2:.1}\" stroke=\"{stroke}\" stroke-width=\"{w}\"{dash}/>"
+            "<line x1=\"{}\" y1=\"{}\" x2=\"{}\" y2=\"{}\" stroke=\"{stroke}\" stroke-width=\"{w}\"{dash}/>",
+            d1(x1),
+            d1(y1),
+            d1(x2),
+            d1(y2)
         );
     }
 
@@ -127,22 +137,24 @@ impl Svg {
         let half = head * 0.45;
         let _ = write!(
             self.body,
-            "<polygon points=\"{:.1},{:.1} {:.1},{:.1} {:.1},{:.1}\" fill=\"{stroke}\"/>",
-            to.0,
-            to.1,
-            base.0 - uy * half,
-            base.1 + ux * half,
-            base.0 + uy * half,
-            base.1 - ux * half
+            "<polygon points=\"{},{} {},{} {},{}\" fill=\"{stroke}\"/>",
+            d1(to.0),
+            d1(to.1),
+            d1(base.0 - uy * half),
+            d1(base.1 + ux * half),
+            d1(base.0 + uy * half),
+            d1(base.1 - ux * half)
         );
     }
 
     fn rect(&mut self, x: f64, y: f64, w: f64, h: f64, fill: &str, stroke: &str) {
         let _ = write!(
             self.body,
-            "<rect x=\"{x:.1}\" y=\"{y:.1}\" width=\"{:.1}\" height=\"{:.1}\" fill=\"{fill}\" stroke=\"{stroke}\"/>",
-            w.max(0.0),
-            h.max(0.0)
+            "<rect x=\"{}\" y=\"{}\" width=\"{}\" height=\"{}\" fill=\"{fill}\" stroke=\"{stroke}\"/>",
+            d1(x),
+            d1(y),
+            d1(w.max(0.0)),
+            d1(h.max(0.0))
         );
     }
 
@@ -154,7 +166,10 @@ impl Svg {
         };
         let _ = write!(
             self.body,
-            "<circle cx=\"{cx:.1}\" cy=\"{cy:.1}\" r=\"{r:.1}\" fill=\"{fill}\" stroke=\"{stroke}\" stroke-width=\"1.5\"{dash}/>"
+            "<circle cx=\"{}\" cy=\"{}\" r=\"{}\" fill=\"{fill}\" stroke=\"{stroke}\" stroke-width=\"1.5\"{dash}/>",
+            d1(cx),
+            d1(cy),
+            d1(r)
         );
     }
 
@@ -169,7 +184,9 @@ impl Svg {
     fn text(&mut self, (x, y): (f64, f64), anchor: &str, size: f64, fill: &str, text: &str) {
         let _ = write!(
             self.body,
-            "<text x=\"{x:.1}\" y=\"{y:.1}\" text-anchor=\"{anchor}\" font-size=\"{size}\" fill=\"{fill}\">{}</text>",
+            "<text x=\"{}\" y=\"{}\" text-anchor=\"{anchor}\" font-size=\"{size}\" fill=\"{fill}\">{}</text>",
+            d1(x),
+            d1(y),
             esc(text)
         );
     }
@@ -342,11 +359,11 @@ pub fn free_body(report: &Report, claim: &Claim) -> Drawing {
         let end = (centre.0 + r * theta.sin(), centre.1 - r * theta.cos());
         svg.path(
             &format!(
-                "M {:.1} {:.1} A {r} {r} 0 0 1 {:.1} {:.1}",
-                centre.0,
-                centre.1 - r,
-                end.0,
-                end.1
+                "M {} {} A {r} {r} 0 0 1 {} {}",
+                d1(centre.0),
+                d1(centre.1 - r),
+                d1(end.0),
+                d1(end.1)
             ),
             INK,
             1.2,
@@ -786,8 +803,12 @@ fn spin_arrow(svg: &mut Svg, (cx, cy): (f64, f64), r: f64, spin: Spin) {
     let sweep_flag = if sweep_cw { 1 } else { 0 };
     svg.path(
         &format!(
-            "M {:.1} {:.1} A {r:.1} {r:.1} 0 1 {sweep_flag} {:.1} {:.1}",
-            s.0, s.1, e.0, e.1
+            "M {} {} A {r} {r} 0 1 {sweep_flag} {} {}",
+            d1(s.0),
+            d1(s.1),
+            d1(e.0),
+            d1(e.1),
+            r = d1(r)
         ),
         THRUST,
         1.5,

@@ -20,6 +20,7 @@ use std::net::SocketAddr;
 use std::sync::Arc;
 use std::time::Duration;
 
+use axum::body::Bytes;
 use axum::extract::DefaultBodyLimit;
 use axum::http::{header, HeaderName, HeaderValue, StatusCode};
 use axum::routing::{get, post};
@@ -64,11 +65,17 @@ impl Default for Config {
     }
 }
 
-/// A demo claim read and checked once at start-up.
+/// A demo claim read, checked and rendered once at start-up.
 pub struct LoadedDemo {
     pub demo: &'static demo::Demo,
     pub claim: Claim,
     pub report: Report,
+    /// The demo's verdict page. It depends on nothing but the demo, and
+    /// drawing and rendering it cost five times a trivial request
+    /// (tests/load.sh), so it is rendered here and served as it is. `None`
+    /// only if rendering failed: the page is then rendered per request and
+    /// answers the error as any page would.
+    pub page: Option<Bytes>,
 }
 
 /// What every handler shares: the demos, ready to show.
@@ -86,10 +93,18 @@ impl AppState {
             .filter_map(|d| match claim::parse(d.text, claim::Format::Toml) {
                 Ok(claim) => {
                     let report = rules::run_all(&claim);
+                    let page = match pages::demo_page(d, &claim, &report) {
+                        Ok(html) => Some(Bytes::from(html)),
+                        Err(e) => {
+                            tracing::error!(demo = d.name, error = %e, "demo page does not render");
+                            None
+                        }
+                    };
                     Some(LoadedDemo {
                         demo: d,
                         claim,
                         report,
+                        page,
                     })
                 }
                 Err(e) => {

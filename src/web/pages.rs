@@ -8,7 +8,7 @@ use axum::http::{header, StatusCode, Uri};
 use axum::response::{Html, IntoResponse, Response};
 use axum::Form;
 
-use crate::claim;
+use crate::claim::{self, demo};
 use crate::rules;
 
 use super::error::{ApiError, Error};
@@ -179,24 +179,43 @@ fn verdict(
     claim: &claim::Claim,
     downloads: Downloads,
 ) -> Result<Response, Error> {
-    let page = VerdictPage::new(report, claim, downloads);
-    Ok(Html(page.render()?).into_response())
+    Ok(Html(render_verdict(&VerdictPage::new(report, claim, downloads))?).into_response())
 }
 
-/// `GET /demo/{name}`: a demo's verdict page, checked at start-up.
+/// A verdict page is 30 to 40 kB with its drawings, far above the size
+/// askama guesses from the template; one buffer of that size up front saves
+/// the copying of a dozen doublings.
+fn render_verdict(page: &VerdictPage) -> Result<String, askama::Error> {
+    let mut html = String::with_capacity(48 * 1024);
+    page.render_into(&mut html)?;
+    Ok(html)
+}
+
+/// A demo's verdict page, as [`AppState::load`](super::AppState::load)
+/// renders it once.
+pub fn demo_page(
+    d: &'static demo::Demo,
+    claim: &claim::Claim,
+    report: &crate::report::Report,
+) -> Result<String, askama::Error> {
+    let downloads = Downloads {
+        demo: Some(d.name),
+        sheet: d.text.to_string(),
+    };
+    render_verdict(&VerdictPage::new(report, claim, downloads))
+}
+
+/// `GET /demo/{name}`: a demo's verdict page, checked and rendered at
+/// start-up.
 pub async fn demo(
     State(state): State<SharedState>,
     Path(name): Path<String>,
 ) -> Result<Response, Error> {
     let d = state.demo(&name).ok_or(Error::NotFound)?;
-    verdict(
-        &d.report,
-        &d.claim,
-        Downloads {
-            demo: Some(d.demo.name),
-            sheet: d.demo.text.to_string(),
-        },
-    )
+    match &d.page {
+        Some(html) => Ok(Html(html.clone()).into_response()),
+        None => Ok(Html(demo_page(d.demo, &d.claim, &d.report)?).into_response()),
+    }
 }
 
 /// `GET /methods`: rules, tier table, sources.

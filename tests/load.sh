@@ -1,0 +1,209 @@
+#!/usr/bin/env bash
+# Load figures for issue 5: throughput of the JSON API and of the HTML verdict page against the
+# trivial route on the same server in the same run, p99 latency, errors and peak RSS.
+#
+# Usage: tests/load.sh [--report-only]
+#   --report-only (or LOAD_REPORT_ONLY=1): print the figures and the PASS/FAIL lines, exit 0.
+# Tunables (defaults are the issue's bounded run): LOAD_THREADS=2 LOAD_CONNECTIONS=32
+#   LOAD_DURATION=10s LOAD_WARMUP=2s LOAD_DEMO=hover-lamp
+#
+# Loopback only: the server listens on 127.0.0.1 on a port the kernel picks (port 0; the port is
+# read from the server's "listening on" line, so there is no race for a free port).
+# Needs wrk (Debian's package, installed here if missing: we run as root in CI), curl, and
+# python3 (tomllib) to turn the demo sheet into the JSON body.
+set -euo pipefail
+cd "$(dirname "$0")/.."
+
+report_only="${LOAD_REPORT_ONLY:-0}"
+for arg in "$@"; do
+    case "$arg" in
+        --report-only) report_only=1 ;;
+        -h | --help) sed -n '2,13p' "$0"; exit 0 ;;
+        *) echo "load.sh: unknown argument '$arg'" >&2; exit 2 ;;
+    esac
+done
+threads="${LOAD_THREADS:-2}"
+connections="${LOAD_CONNECTIONS:-32}"
+duration="${LOAD_DURATION:-10s}"
+warmup="${LOAD_WARMUP:-2s}"
+demo="${LOAD_DEMO:-hover-lamp}"
+sheet="demo-claims/$demo.toml"
+[ -f "$sheet" ] || { echo "load.sh: no demo sheet $sheet" >&2; exit 2; }
+
+if ! command -v wrk >/dev/null 2>&1; then
+    export DEBIAN_FRONTEND=noninteractive
+    apt-get update -qq
+    apt-get install -y -qq wrk >/dev/null
+fi
+
+cargo build --release --locked --quiet
+bin=target/release/liftaudit
+
+work=$(mktemp -d)
+server_pid=""
+cleanup() {
+    if [ -n "$server_pid" ] && kill -0 "$server_pid" 2>/dev/null; then
+        kill -TERM "$server_pid" 2>/dev/null || true
+        for _ in $(seq 50); do
+            kill -0 "$server_pid" 2>/dev/null || break
+            sleep 0.1
+        done
+        kill -KILL "$server_pid" 2>/dev/null || true
+        wait "$server_pid" 2>/dev/null || true
+    fi
+    rm -rf "$work"
+}
+trap cleanup EXIT
+trap 'exit 130' INT
+trap 'exit 143' TERM
+
+# The request bodies: the demo sheet as JSON for the API, and as the form posts it for the page.
+python3 -c 'import json, sys, tomllib; print(json.dumps(tomllib.load(open(sys.argv[1], "rb"))))' \
+    "$sheet" >"$work/sheet.json"
+cp "$sheet" "$work/sheet.toml"
+
+# One wrk script per route. done() prints one machine-readable line; wrk counts a status >= 400
+# in errors.status (the preflight below checks each route answers 200 first).
+done_lua='
+done = function(summary, latency, requests)
+  local e = summary.errors
+  io.write(string.format("LOADRESULT %d %d %d %d %d %d %d %d %d\n",
+    summary.requests, summary.duration, latency:percentile(50), latency:percentile(99),
+    e.connect, e.read, e.write, e.status, e.timeout))
+end
+'
+read_body_lua='
+local function read_file(path)
+  local f = assert(io.open(path, "rb"))
+  local s = f:read("*a")
+  f:close()
+  return s
+end
+local function urlencode(s)
+  return (s:gsub("[^%w%-_%.~]", function(c) return string.format("%%%02X", string.byte(c)) end))
+end
+'
+printf '%s\n' "$done_lua" >"$work/get.lua"
+{
+    printf '%s\n' "$read_body_lua"
+    printf 'wrk.method = "POST"\nwrk.body = read_file("%s")\n' "$work/sheet.json"
+    printf 'wrk.headers["Content-Type"] = "application/json"\n'
+    printf '%s\n' "$done_lua"
+} >"$work/api.lua"
+{
+    printf '%s\n' "$read_body_lua"
+    printf 'wrk.method = "POST"\n'
+    printf 'wrk.body = "from=sheet&sheet=" .. urlencode(read_file("%s"))\n' "$work/sheet.toml"
+    printf 'wrk.headers["Content-Type"] = "application/x-www-form-urlencoded"\n'
+    printf '%s\n' "$done_lua"
+} >"$work/page.lua"
+
+# Start the server as `liftaudit serve` runs in production (default log level, one line per
+# request, to a file here), and read its address from its log.
+NO_COLOR=1 "$bin" serve --addr 127.0.0.1:0 >"$work/server.log" 2>&1 &
+server_pid=$!
+addr=""
+for _ in $(seq 100); do
+    addr=$(sed -n 's|.*listening on http://\([0-9.:]*\)/.*|\1|p' "$work/server.log" | head -n1)
+    [ -n "$addr" ] && break
+    kill -0 "$server_pid" 2>/dev/null || { cat "$work/server.log" >&2; echo "load.sh: the server ended" >&2; exit 1; }
+    sleep 0.1
+done
+[ -n "$addr" ] || { echo "load.sh: the server did not listen within 10 s" >&2; exit 1; }
+base="http://$addr"
+for _ in $(seq 50); do
+    curl -fsS -o /dev/null "$base/healthz" && break
+    sleep 0.1
+done
+
+# Preflight: each route answers 200 with what it should, so the load measures real answers.
+preflight() { # name expected-type curl-args...
+    local name=$1 want=$2
+    shift 2
+    local got
+    got=$(curl -sS -o "$work/preflight.body" -w '%{http_code} %{content_type}' "$@")
+    case "$got" in
+        "200 $want"*) ;;
+        *) echo "load.sh: preflight of $name answered '$got'" >&2; head -c 600 "$work/preflight.body" >&2; exit 1 ;;
+    esac
+}
+preflight healthz application/json "$base/healthz"
+preflight api application/json -H 'Content-Type: application/json' --data-binary "@$work/sheet.json" "$base/api/v1/check"
+preflight page text/html --data-urlencode "sheet@$work/sheet.toml" --data 'from=sheet' "$base/check"
+preflight demo-page text/html "$base/demo/$demo"
+
+# name|method path|wrk script
+routes=(
+    "trivial|GET /healthz|$work/get.lua|$base/healthz"
+    "api|POST /api/v1/check ($demo as JSON)|$work/api.lua|$base/api/v1/check"
+    "page|POST /check ($demo sheet, verdict page)|$work/page.lua|$base/check"
+    "demo|GET /demo/$demo (verdict page of a demo)|$work/get.lua|$base/demo/$demo"
+)
+
+cores=$(nproc)
+echo "liftaudit load run: $(git rev-parse --short HEAD 2>/dev/null || echo '?') on $(hostname), $cores cores"
+echo "wrk and the server share these $cores cores on loopback: wrk's $threads threads take CPU the"
+echo "server would otherwise have, so absolute figures understate a server alone; the ratios"
+echo "against the trivial route on the same server in the same run are what the targets judge."
+echo "wrk: $threads threads, $connections connections, $duration per route after a $warmup warm-up"
+echo "load average before: $(cut -d' ' -f1-3 /proc/loadavg)"
+echo
+
+# The server's own CPU time (user + system, in clock ticks), to give its cost per request: unlike
+# throughput, that does not depend on how much of the machine wrk and other work take.
+ticks=$(getconf CLK_TCK)
+server_cpu() { awk '{ print $14 + $15 }' "/proc/$server_pid/stat"; }
+
+declare -A rps p50 p99 errs cpu_us
+for entry in "${routes[@]}"; do
+    IFS='|' read -r name label script url <<<"$entry"
+    wrk -t"$threads" -c"$connections" -d"$warmup" -s "$script" "$url" >/dev/null
+    cpu0=$(server_cpu)
+    out=$(wrk -t"$threads" -c"$connections" -d"$duration" --latency -s "$script" "$url")
+    cpu1=$(server_cpu)
+    echo "$out" >"$work/wrk-$name.txt"
+    read -r _ n dur l50 l99 ec er ew es et <<<"$(grep '^LOADRESULT' <<<"$out")"
+    rps[$name]=$(awk -v n="$n" -v d="$dur" 'BEGIN { printf "%.0f", n / (d / 1e6) }')
+    p50[$name]=$(awk -v l="$l50" 'BEGIN { printf "%.2f", l / 1000 }')
+    p99[$name]=$(awk -v l="$l99" 'BEGIN { printf "%.2f", l / 1000 }')
+    cpu_us[$name]=$(awk -v c=$((cpu1 - cpu0)) -v t="$ticks" -v n="$n" 'BEGIN { printf "%.0f", c / t * 1e6 / n }')
+    errs[$name]=$((ec + er + ew + es + et))
+    printf '%-7s %-48s %8s req/s  p50 %6s ms  p99 %6s ms  server CPU %4s us/req  errors %d (connect %d, read %d, write %d, status>=400 %d, timeout %d)\n' \
+        "$name" "$label" "${rps[$name]}" "${p50[$name]}" "${p99[$name]}" "${cpu_us[$name]}" "${errs[$name]}" "$ec" "$er" "$ew" "$es" "$et"
+done
+
+hwm_kib=$(awk '/^VmHWM:/ { print $2 }' "/proc/$server_pid/status")
+rss_mib=$(awk -v k="$hwm_kib" 'BEGIN { printf "%.1f", k / 1024 }')
+ratio() { awk -v a="$1" -v b="$2" 'BEGIN { printf "%.2f", a / b }'; }
+api_ratio=$(ratio "${rps[api]}" "${rps[trivial]}")
+page_ratio=$(ratio "${rps[page]}" "${rps[trivial]}")
+demo_ratio=$(ratio "${rps[demo]}" "${rps[trivial]}")
+echo
+echo "ratios: api/trivial $api_ratio, page/trivial $page_ratio (demo page/trivial $demo_ratio)"
+echo "server peak RSS (VmHWM): $rss_mib MiB; log lines written: $(wc -l <"$work/server.log")"
+echo "load average after: $(cut -d' ' -f1-3 /proc/loadavg)"
+echo
+
+failed=0
+verdict() { # description, awk condition
+    if awk "BEGIN { exit !($2) }"; then
+        echo "PASS  $1"
+    else
+        echo "FAIL  $1"
+        failed=1
+    fi
+}
+verdict "API >= 0.5 x trivial ($api_ratio)" "$api_ratio >= 0.5"
+verdict "page >= 0.35 x trivial ($page_ratio)" "$page_ratio >= 0.35"
+worst_p99=0
+for name in trivial api page demo; do
+    worst_p99=$(awk -v a="$worst_p99" -v b="${p99[$name]}" 'BEGIN { print (b > a) ? b : a }')
+done
+verdict "p99 < 10 ms at $connections connections on every route (worst $worst_p99 ms)" "$worst_p99 < 10"
+total_errs=$((errs[trivial] + errs[api] + errs[page] + errs[demo]))
+verdict "zero errors ($total_errs)" "$total_errs == 0"
+verdict "peak RSS < 64 MiB ($rss_mib MiB)" "$rss_mib < 64"
+
+if [ "$failed" -ne 0 ] && [ "$report_only" != 1 ]; then
+    exit 1
+fi
