@@ -14,6 +14,7 @@ use axum::http::{header, StatusCode};
 use axum::response::{Html, IntoResponse, Response};
 use axum::Json;
 use serde::Serialize;
+use utoipa::ToSchema;
 
 use crate::claim;
 
@@ -127,19 +128,27 @@ impl<E: Into<Error>> From<E> for ApiError {
 
 /// One entry of `{"errors": [...]}`: a field path for a refused field, a line
 /// and column for a syntax error.
-#[derive(Debug, Serialize)]
+#[derive(Debug, Serialize, ToSchema)]
 pub struct ErrorEntry {
+    /// The dotted path of a refused field (`rotors.diameter`,
+    /// `craft.parts[2].mass`); absent for an error of the whole request.
     #[serde(skip_serializing_if = "Option::is_none")]
+    #[schema(value_type = String, required = false)]
     pub field: Option<String>,
     pub message: String,
+    /// Where a syntax error is, counted from 1; absent otherwise.
     #[serde(skip_serializing_if = "Option::is_none")]
+    #[schema(value_type = u64, required = false, minimum = 1)]
     pub line: Option<usize>,
     #[serde(skip_serializing_if = "Option::is_none")]
+    #[schema(value_type = u64, required = false, minimum = 1)]
     pub column: Option<usize>,
 }
 
-#[derive(Debug, Serialize)]
+/// The body of every JSON error: at least one entry.
+#[derive(Debug, Serialize, ToSchema)]
 pub struct ErrorBody {
+    #[schema(min_items = 1)]
     pub errors: Vec<ErrorEntry>,
 }
 

@@ -13,6 +13,7 @@ pub mod error;
 pub mod figures;
 pub mod form;
 pub mod layout;
+pub mod openapi;
 mod pages;
 pub mod view;
 
@@ -71,9 +72,11 @@ pub struct LoadedDemo {
     pub report: Report,
 }
 
-/// What every handler shares: the demos, ready to show.
+/// What every handler shares: the demos, ready to show, and the OpenAPI
+/// document, written once.
 pub struct AppState {
     pub demos: Vec<LoadedDemo>,
+    pub openapi: axum::body::Bytes,
 }
 
 impl AppState {
@@ -98,7 +101,10 @@ impl AppState {
                 }
             })
             .collect();
-        AppState { demos }
+        let openapi = serde_json::to_string_pretty(&openapi::document())
+            .unwrap_or_default()
+            .into();
+        AppState { demos, openapi }
     }
 
     pub fn demo(&self, name: &str) -> Option<&LoadedDemo> {
@@ -125,6 +131,7 @@ pub fn app(config: Config) -> Router {
         .route("/methods", get(pages::methods))
         .route("/api/v1/check", post(api::check))
         .route("/api/v1/catalog", get(api::catalog))
+        .route("/api/v1/openapi.json", get(openapi::openapi_json))
         .route("/healthz", get(api::healthz))
         .route("/static/{file}", get(assets::serve))
         .fallback(pages::not_found)
