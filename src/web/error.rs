@@ -10,7 +10,9 @@ use std::any::Any;
 
 use askama::Template;
 use axum::body::Body;
+use axum::extract::Request;
 use axum::http::{header, StatusCode};
+use axum::middleware::Next;
 use axum::response::{Html, IntoResponse, Response};
 use axum::Json;
 use serde::Serialize;
@@ -191,6 +193,33 @@ impl IntoResponse for ApiError {
     fn into_response(self) -> Response {
         self.0.log();
         (self.0.status(), Json(ErrorBody::of(&self.0))).into_response()
+    }
+}
+
+/// Paths whose errors are answered as JSON ([`ApiError`]): the API and the downloads.
+pub fn answers_json(path: &str) -> bool {
+    path.starts_with("/api/") || path.starts_with("/download/")
+}
+
+/// `RequestBodyLimitLayer` refuses a body whose declared length is over the
+/// limit before any handler runs, with a plain-text answer of its own. This
+/// gives that refusal the body of every other 413: the JSON errors body under
+/// `/api/` and for the downloads (as the OpenAPI document says), the error
+/// page elsewhere.
+pub async fn restate_early_refusal(request: Request, next: Next) -> Response {
+    let json = answers_json(request.uri().path());
+    let response = next.run(request).await;
+    let plain_text = response
+        .headers()
+        .get(header::CONTENT_TYPE)
+        .is_some_and(|v| v.as_bytes().starts_with(b"text/plain"));
+    if response.status() != StatusCode::PAYLOAD_TOO_LARGE || !plain_text {
+        return response;
+    }
+    if json {
+        ApiError(Error::TooLarge).into_response()
+    } else {
+        Error::TooLarge.into_response()
     }
 }
 

@@ -168,6 +168,7 @@ pub fn app(config: Config) -> Router {
                     .on_response(DefaultOnResponse::new().level(Level::INFO)),
             )
             .layer(headers)
+            .layer(axum::middleware::from_fn(error::restate_early_refusal))
             .layer(RequestBodyLimitLayer::new(BODY_LIMIT))
             .layer(CatchPanicLayer::custom(error::panic_response))
             .layer(TimeoutLayer::with_status_code(
