@@ -640,6 +640,28 @@ async fn a_real_socket_serves_the_form_and_refuses_a_declared_oversize_body_earl
     );
     let answer = raw(addr, head.as_bytes()).await;
     assert!(answer.starts_with("HTTP/1.1 413"), "{answer}");
+    // ... with the JSON errors body the OpenAPI document gives for 413, as a
+    // body that is read and found too long gets.
+    let lower = answer.to_ascii_lowercase();
+    assert!(lower.contains("content-type: application/json"), "{answer}");
+    let body = answer.split("\r\n\r\n").nth(1).unwrap_or("");
+    let v: serde_json::Value =
+        serde_json::from_str(body).unwrap_or_else(|e| panic!("{e}: {answer}"));
+    assert!(v["errors"][0]["message"].as_str().unwrap().contains("KiB"));
+
+    // The form gets the error page, not a line of plain text.
+    let head = format!(
+        "POST /check HTTP/1.1\r\nHost: t\r\nContent-Type: {FORM}\r\nContent-Length: {}\r\nConnection: close\r\n\r\n",
+        2 * web::BODY_LIMIT
+    );
+    let page = raw(addr, head.as_bytes()).await;
+    assert!(page.starts_with("HTTP/1.1 413"), "{page}");
+    assert!(
+        page.to_ascii_lowercase()
+            .contains("content-type: text/html"),
+        "{page}"
+    );
+    assert!(page.contains("<h1>413"), "{page}");
 }
 
 #[tokio::test]

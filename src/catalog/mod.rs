@@ -7,9 +7,10 @@ pub mod tiers;
 use serde::Serialize;
 use uom::si::f64::{Force, Length, Mass, Power};
 use uom::si::{force::gram_force, length::millimeter, mass::gram, power::watt};
+use utoipa::ToSchema;
 
 /// Where a value comes from.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, ToSchema)]
 #[serde(tag = "kind", content = "note", rename_all = "kebab-case")]
 pub enum Basis {
     /// A published source, by its id in [`crate::sources`].
@@ -34,7 +35,7 @@ impl Basis {
     }
 }
 
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, ToSchema)]
 #[serde(rename_all = "kebab-case")]
 pub enum Drive {
     Brushed,
@@ -53,7 +54,7 @@ impl Drive {
 /// A motor class by the trade's size designation (can diameter x length in mm
 /// for coreless motors, stator diameter and height for brushless ones), with
 /// its usual propeller. Values are for one motor at its usual cell count.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, ToSchema)]
 pub struct MotorClass {
     pub id: &'static str,
     pub label: &'static str,
@@ -226,7 +227,7 @@ pub fn motor(id: &str) -> Option<&'static MotorClass> {
 }
 
 /// A battery chemistry at the cell level.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, ToSchema)]
 pub struct Chemistry {
     pub id: &'static str,
     pub label: &'static str,

@@ -8,10 +8,11 @@
 use serde::Serialize;
 use uom::si::f64::Length;
 use uom::si::length::millimeter;
+use utoipa::ToSchema;
 
 use super::{Basis, Drive};
 
-#[derive(Debug, Clone, Copy, PartialEq, Eq, PartialOrd, Ord, Hash, Serialize)]
+#[derive(Debug, Clone, Copy, PartialEq, Eq, PartialOrd, Ord, Hash, Serialize, ToSchema)]
 #[serde(rename_all = "kebab-case")]
 pub enum Tier {
     PhysicalLimit,
@@ -45,12 +46,13 @@ impl Tier {
 }
 
 /// One row of the tier table.
-#[derive(Debug, Clone, Serialize)]
+#[derive(Debug, Clone, Serialize, ToSchema)]
 pub struct Row {
     pub key: &'static str,
     pub label: &'static str,
     pub unit: &'static str,
     /// Values at physical limit, best practice, typical.
+    #[schema(min_items = 3, max_items = 3)]
     pub values: [f64; 3],
     pub basis: Basis,
 }

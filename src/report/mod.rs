@@ -7,6 +7,7 @@
 mod text;
 
 use serde::Serialize;
+use utoipa::ToSchema;
 
 pub use crate::catalog::tiers::Tier;
 pub use text::render_text;
@@ -14,7 +15,7 @@ pub use text::render_text;
 pub const SCHEMA: &str = "liftaudit.report/1";
 
 /// The verdict of one finding or of a whole report.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Hash, Serialize)]
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Hash, Serialize, ToSchema)]
 #[serde(rename_all = "kebab-case")]
 pub enum Verdict {
     Consistent,
@@ -109,19 +110,23 @@ impl Verdict {
 }
 
 /// One number behind a finding.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, ToSchema)]
 pub struct Figure {
+    /// The figure's id; DESIGN "Report v1" names the keys other tools rely on.
+    #[schema(pattern = r"^[a-z0-9]+(_[a-z0-9]+)*$")]
     pub key: &'static str,
     pub label: String,
-    /// Absent for a figure that does not depend on the assumptions.
+    /// Absent for a figure that does not depend on the assumptions; never null.
     #[serde(skip_serializing_if = "Option::is_none")]
+    #[schema(value_type = Tier, required = false)]
     pub tier: Option<Tier>,
+    /// Always finite: a tier value without a bound is left out instead.
     pub value: f64,
     pub unit: &'static str,
 }
 
 /// The result of one rule.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, ToSchema)]
 pub struct Finding {
     pub rule: &'static str,
     pub verdict: Verdict,
@@ -153,7 +158,7 @@ impl Finding {
 }
 
 /// The whole verdict on one claim sheet.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, ToSchema)]
 pub struct Report {
     pub schema: &'static str,
     pub title: String,

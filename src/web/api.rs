@@ -10,13 +10,15 @@ use axum::http::{header, HeaderMap, HeaderValue};
 use axum::response::{IntoResponse, Response};
 use axum::{Form, Json};
 use serde::{Deserialize, Serialize};
+use utoipa::ToSchema;
 
 use crate::catalog::{self, tiers};
 use crate::claim::{self, Format};
 use crate::report::Report;
 use crate::rules;
 
-use super::error::{ApiError, Error};
+use super::error::{ApiError, Error, ErrorBody};
+use super::openapi::ClaimSheet;
 use super::SharedState;
 
 /// The blank sheet offered for download: every field, the optional ones
@@ -98,6 +100,29 @@ fn api_json(report: &Report) -> Result<Vec<u8>, Error> {
 }
 
 /// `POST /api/v1/check`: a sheet in, the report out.
+#[utoipa::path(
+    post,
+    path = "/api/v1/check",
+    operation_id = "check",
+    summary = "Check a claim sheet",
+    description = "Reads a claim sheet (DESIGN \"Claim sheet v1\"), as JSON or as TOML, runs every \
+        rule and answers with the report (`liftaudit.report/1`). Without a Content-Type, or with \
+        text/plain, the format is told by the text: `{` starts JSON, anything else is TOML.",
+    request_body(
+        description = "The claim sheet; JSON and TOML have the same shape.",
+        content(
+            (ClaimSheet = "application/json"),
+            (String = "application/toml"),
+        ),
+    ),
+    responses(
+        (status = 200, description = "The report on the sheet", body = Report),
+        (status = 400, description = "Not well-formed JSON or TOML (with line and column), or not UTF-8", body = ErrorBody),
+        (status = 413, description = "The body is larger than 1 MiB", body = ErrorBody),
+        (status = 415, description = "A Content-Type that is not a sheet format", body = ErrorBody),
+        (status = 422, description = "Well-formed, but fields are missing, unknown, in the wrong unit or out of range; one entry per field", body = ErrorBody),
+    ),
+)]
 pub async fn check(
     headers: HeaderMap,
     body: Result<Bytes, BytesRejection>,
@@ -108,32 +133,48 @@ pub async fn check(
     Ok(json_response(api_json(&report)?, None))
 }
 
+/// The schema id of `GET /api/v1/catalog`.
+pub const CATALOG_SCHEMA: &str = "liftaudit.catalog/1";
+
 /// The shape of `GET /api/v1/catalog`.
-#[derive(Serialize)]
-struct CatalogBody {
+#[derive(Serialize, ToSchema)]
+#[schema(as = Catalog)]
+pub struct CatalogBody {
+    /// `liftaudit.catalog/1`.
     schema: &'static str,
     motors: &'static [catalog::MotorClass],
     chemistries: &'static [catalog::Chemistry],
+    /// The assumption tiers, most generous first.
     tiers: Vec<TierEntry>,
+    #[schema(value_type = Vec<tiers::Row>)]
     tier_table: &'static [&'static tiers::Row],
 }
 
-#[derive(Serialize)]
-struct TierEntry {
-    id: &'static str,
+#[derive(Serialize, ToSchema)]
+pub struct TierEntry {
+    id: tiers::Tier,
     label: &'static str,
 }
 
 /// `GET /api/v1/catalog`: motor classes, chemistries, tiers and their table.
-pub async fn catalog() -> Json<impl Serialize> {
+#[utoipa::path(
+    get,
+    path = "/api/v1/catalog",
+    operation_id = "catalog",
+    summary = "The built-in data the rules use",
+    responses(
+        (status = 200, description = "Motor classes, battery chemistries, the tiers and the tier table, each value with its basis", body = CatalogBody),
+    ),
+)]
+pub async fn catalog() -> Json<CatalogBody> {
     Json(CatalogBody {
-        schema: "liftaudit.catalog/1",
+        schema: CATALOG_SCHEMA,
         motors: catalog::MOTORS,
         chemistries: catalog::CHEMISTRIES,
         tiers: tiers::Tier::ALL
             .iter()
-            .map(|t| TierEntry {
-                id: t.id(),
+            .map(|&t| TierEntry {
+                id: t,
                 label: t.label(),
             })
             .collect(),
@@ -141,14 +182,33 @@ pub async fn catalog() -> Json<impl Serialize> {
     })
 }
 
+/// The shape of `GET /healthz`.
+#[derive(Serialize, ToSchema)]
+pub struct Health {
+    /// Always `ok`: a service that answers is up.
+    status: &'static str,
+    engine: &'static str,
+    /// Demo claims loaded at start-up.
+    demos: usize,
+    /// Rules in the registry.
+    rules: usize,
+}
+
 /// `GET /healthz`: up, with the demos loaded.
-pub async fn healthz(State(state): State<SharedState>) -> Json<serde_json::Value> {
-    Json(serde_json::json!({
-        "status": "ok",
-        "engine": crate::report::ENGINE,
-        "demos": state.demos.len(),
-        "rules": rules::REGISTRY.len(),
-    }))
+#[utoipa::path(
+    get,
+    path = "/healthz",
+    operation_id = "healthz",
+    summary = "Liveness, with the demos and rules loaded",
+    responses((status = 200, description = "The service is up", body = Health)),
+)]
+pub async fn healthz(State(state): State<SharedState>) -> Json<Health> {
+    Json(Health {
+        status: "ok",
+        engine: crate::report::ENGINE,
+        demos: state.demos.len(),
+        rules: rules::REGISTRY.len(),
+    })
 }
 
 /// `GET /demo/{name}/report.json`.

@@ -10,10 +10,13 @@ use std::any::Any;
 
 use askama::Template;
 use axum::body::Body;
+use axum::extract::Request;
 use axum::http::{header, StatusCode};
+use axum::middleware::Next;
 use axum::response::{Html, IntoResponse, Response};
 use axum::Json;
 use serde::Serialize;
+use utoipa::ToSchema;
 
 use crate::claim;
 
@@ -127,19 +130,27 @@ impl<E: Into<Error>> From<E> for ApiError {
 
 /// One entry of `{"errors": [...]}`: a field path for a refused field, a line
 /// and column for a syntax error.
-#[derive(Debug, Serialize)]
+#[derive(Debug, Serialize, ToSchema)]
 pub struct ErrorEntry {
+    /// The dotted path of a refused field (`rotors.diameter`,
+    /// `craft.parts[2].mass`); absent for an error of the whole request.
     #[serde(skip_serializing_if = "Option::is_none")]
+    #[schema(value_type = String, required = false)]
     pub field: Option<String>,
     pub message: String,
+    /// Where a syntax error is, counted from 1; absent otherwise.
     #[serde(skip_serializing_if = "Option::is_none")]
+    #[schema(value_type = u64, required = false, minimum = 1)]
     pub line: Option<usize>,
     #[serde(skip_serializing_if = "Option::is_none")]
+    #[schema(value_type = u64, required = false, minimum = 1)]
     pub column: Option<usize>,
 }
 
-#[derive(Debug, Serialize)]
+/// The body of every JSON error: at least one entry.
+#[derive(Debug, Serialize, ToSchema)]
 pub struct ErrorBody {
+    #[schema(min_items = 1)]
     pub errors: Vec<ErrorEntry>,
 }
 
@@ -182,6 +193,33 @@ impl IntoResponse for ApiError {
     fn into_response(self) -> Response {
         self.0.log();
         (self.0.status(), Json(ErrorBody::of(&self.0))).into_response()
+    }
+}
+
+/// Paths whose errors are answered as JSON ([`ApiError`]): the API and the downloads.
+pub fn answers_json(path: &str) -> bool {
+    path.starts_with("/api/") || path.starts_with("/download/")
+}
+
+/// `RequestBodyLimitLayer` refuses a body whose declared length is over the
+/// limit before any handler runs, with a plain-text answer of its own. This
+/// gives that refusal the body of every other 413: the JSON errors body under
+/// `/api/` and for the downloads (as the OpenAPI document says), the error
+/// page elsewhere.
+pub async fn restate_early_refusal(request: Request, next: Next) -> Response {
+    let json = answers_json(request.uri().path());
+    let response = next.run(request).await;
+    let plain_text = response
+        .headers()
+        .get(header::CONTENT_TYPE)
+        .is_some_and(|v| v.as_bytes().starts_with(b"text/plain"));
+    if response.status() != StatusCode::PAYLOAD_TOO_LARGE || !plain_text {
+        return response;
+    }
+    if json {
+        ApiError(Error::TooLarge).into_response()
+    } else {
+        Error::TooLarge.into_response()
     }
 }
 

@@ -13,6 +13,7 @@ pub mod error;
 pub mod figures;
 pub mod form;
 pub mod layout;
+pub mod openapi;
 mod pages;
 pub mod view;
 
@@ -78,9 +79,11 @@ pub struct LoadedDemo {
     pub page: Option<Bytes>,
 }
 
-/// What every handler shares: the demos, ready to show.
+/// What every handler shares: the demos, ready to show, and the OpenAPI
+/// document, written once.
 pub struct AppState {
     pub demos: Vec<LoadedDemo>,
+    pub openapi: axum::body::Bytes,
 }
 
 impl AppState {
@@ -113,7 +116,10 @@ impl AppState {
                 }
             })
             .collect();
-        AppState { demos }
+        let openapi = serde_json::to_string_pretty(&openapi::document())
+            .unwrap_or_default()
+            .into();
+        AppState { demos, openapi }
     }
 
     pub fn demo(&self, name: &str) -> Option<&LoadedDemo> {
@@ -140,6 +146,7 @@ pub fn app(config: Config) -> Router {
         .route("/methods", get(pages::methods))
         .route("/api/v1/check", post(api::check))
         .route("/api/v1/catalog", get(api::catalog))
+        .route("/api/v1/openapi.json", get(openapi::openapi_json))
         .route("/healthz", get(api::healthz))
         .route("/static/{file}", get(assets::serve))
         .fallback(pages::not_found)
@@ -176,6 +183,7 @@ pub fn app(config: Config) -> Router {
                     .on_response(DefaultOnResponse::new().level(Level::INFO)),
             )
             .layer(headers)
+            .layer(axum::middleware::from_fn(error::restate_early_refusal))
             .layer(RequestBodyLimitLayer::new(BODY_LIMIT))
             .layer(CatchPanicLayer::custom(error::panic_response))
             .layer(TimeoutLayer::with_status_code(
