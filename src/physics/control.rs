@@ -12,7 +12,7 @@
 //! The matrix is plain `f64` in SI: the thrust row in N, moment rows in N m.
 //! The ACAI is a distance in that mixed space (N and N m), as in `du-2015`.
 
-use nalgebra::{Matrix3, Matrix4xX, Vector3, Vector4, SVD};
+use nalgebra::{DVector, Matrix3, Matrix4xX, Vector3, Vector4, SVD};
 use serde::Serialize;
 use uom::si::f64::{Angle, Force, Length, Torque};
 use uom::si::{force::newton, length::meter, torque::newton_meter};
@@ -270,9 +270,29 @@ fn svd(m: &Matrix4xX<f64>) -> Option<(Vec<f64>, Vec<Vector4<f64>>)> {
     Some((svd.singular_values.iter().copied().collect(), vectors))
 }
 
-/// Rank with singular values below `TOL` times `scale` counted as zero.
-fn rank_of(m: &Matrix4xX<f64>, scale: f64) -> usize {
-    svd(m).map_or(0, |(s, _)| s.iter().filter(|&&v| v > TOL * scale).count())
+/// For each row of `m` in order, whether it adds a direction to the rows
+/// before it: its part orthogonal to them (modified Gram-Schmidt, applied
+/// twice for round-off) is longer than `TOL` times `scale`. The axes are
+/// taken in the order thrust, roll, pitch, yaw, so a lacking axis is one
+/// whose row the earlier axes already span.
+fn independent_rows(m: &Matrix4xX<f64>, scale: f64) -> [bool; 4] {
+    let mut basis: Vec<DVector<f64>> = Vec::with_capacity(4);
+    let mut independent = [false; 4];
+    for (i, flag) in independent.iter_mut().enumerate() {
+        let mut r: DVector<f64> = m.row(i).transpose();
+        for _ in 0..2 {
+            for q in &basis {
+                let along = q.dot(&r);
+                r.axpy(-along, q, 1.0);
+            }
+        }
+        let length = r.norm();
+        if length > TOL * scale {
+            basis.push(r / length);
+            *flag = true;
+        }
+    }
+    independent
 }
 
 /// Rank of B (SVD, relative tolerance), the axes it cannot command, and why.
@@ -301,19 +321,12 @@ pub fn authority(b: &Matrix4xX<f64>) -> Authority {
         .filter(|&(i, a)| !unmoved.contains(&a) && null.iter().any(|n| n[i].abs() > 1e-6))
         .map(|(_, a)| a)
         .collect();
-    let mut kept: Vec<usize> = Vec::new();
-    let mut lacking = Vec::new();
-    for (i, axis) in Axis::ALL.into_iter().enumerate() {
-        let mut rows = Matrix4xX::zeros(b.ncols());
-        for (slot, &r) in kept.iter().chain([&i]).enumerate() {
-            rows.set_row(slot, &b.row(r));
-        }
-        if rank_of(&rows, scale) > kept.len() {
-            kept.push(i);
-        } else {
-            lacking.push(axis);
-        }
-    }
+    let lacking = Axis::ALL
+        .into_iter()
+        .zip(independent_rows(b, scale))
+        .filter(|&(_, independent)| !independent)
+        .map(|(a, _)| a)
+        .collect();
     Authority {
         rank,
         lacking,
@@ -649,6 +662,37 @@ mod tests {
             assert!(hover_acai(&quad, &hover, &[]) > 0.0);
             for lost in 0..4 {
                 assert!(hover_acai(&quad, &hover, &[lost]) < 0.0);
+            }
+        }
+    }
+
+    #[test]
+    fn the_lacking_axes_are_as_many_as_the_rank_falls_short_of_four() {
+        // Linear algebra: the greedy row test keeps a basis of the row space,
+        // so it keeps exactly rank-many rows (the rank from the SVD).
+        let mut x: u64 = 0x2545_F491_4F6C_DD1D;
+        let mut next = || {
+            x ^= x << 13;
+            x ^= x >> 7;
+            x ^= x << 17;
+            (x >> 11) as f64 / (1u64 << 53) as f64 - 0.5
+        };
+        for cols in [2, 4, 6, 8] {
+            for dependent in 0..4 {
+                let mut m = Matrix4xX::from_fn(cols, |_, _| next());
+                // Make the last `dependent` rows combinations of the first ones.
+                for row in 4 - dependent..4 {
+                    let (a, b) = (next(), next());
+                    let mix = m.row(0) * a + m.row(1 % (4 - dependent)) * b;
+                    m.set_row(row, &mix);
+                }
+                let a = authority(&m);
+                assert_eq!(
+                    a.lacking.len(),
+                    4 - a.rank,
+                    "{cols} columns, {dependent} dependent"
+                );
+                assert_eq!(a.rank, (4 - dependent).min(cols));
             }
         }
     }

@@ -4,12 +4,17 @@
 //! other tools read the figure keys and verdict ids, so they change only with
 //! a new schema id.
 
+pub mod json;
+pub mod numbers;
 mod text;
+
+use std::borrow::Cow;
 
 use serde::Serialize;
 use utoipa::ToSchema;
 
 pub use crate::catalog::tiers::Tier;
+pub use numbers::{sig3, Fixed, Sig3};
 pub use text::render_text;
 
 pub const SCHEMA: &str = "liftaudit.report/1";
@@ -115,7 +120,9 @@ pub struct Figure {
     /// The figure's id; DESIGN "Report v1" names the keys other tools rely on.
     #[schema(pattern = r"^[a-z0-9]+(_[a-z0-9]+)*$")]
     pub key: &'static str,
-    pub label: String,
+    /// Words for people; most are fixed, a few name rotors.
+    #[schema(value_type = String)]
+    pub label: Cow<'static, str>,
     /// Absent for a figure that does not depend on the assumptions; never null.
     #[serde(skip_serializing_if = "Option::is_none")]
     #[schema(value_type = Tier, required = false)]
@@ -194,10 +201,10 @@ impl Report {
         self.findings.iter().find(|f| f.rule == rule)
     }
 
+    /// The report as indented JSON (see [`json`]).
     pub fn to_json(&self) -> String {
-        serde_json::to_string_pretty(self).unwrap_or_else(|e| {
-            format!("{{\"schema\":\"{SCHEMA}\",\"error\":\"report could not be written: {e}\"}}")
-        })
+        // The writer emits only the UTF-8 of our strings and ASCII punctuation.
+        String::from_utf8(json::indented(self)).unwrap_or_default()
     }
 }
 

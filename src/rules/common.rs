@@ -1,6 +1,8 @@
 //! Steps shared by the rules: the air and weight of a claim, the tier walk,
 //! and figure builders.
 
+use std::borrow::Cow;
+
 use uom::si::f64::{Force, Length};
 
 use crate::catalog::tiers::Tier;
@@ -31,14 +33,14 @@ pub fn verdict_of(passes: impl FnMut(Tier) -> bool) -> Verdict {
 /// A figure at one tier.
 pub fn tiered(
     key: &'static str,
-    label: &str,
+    label: impl Into<Cow<'static, str>>,
     tier: Tier,
     value: f64,
     unit: &'static str,
 ) -> Figure {
     Figure {
         key,
-        label: label.to_string(),
+        label: label.into(),
         tier: Some(tier),
         value,
         unit,
@@ -46,10 +48,15 @@ pub fn tiered(
 }
 
 /// A figure that does not depend on the tier.
-pub fn fixed(key: &'static str, label: &str, value: f64, unit: &'static str) -> Figure {
+pub fn fixed(
+    key: &'static str,
+    label: impl Into<Cow<'static, str>>,
+    value: f64,
+    unit: &'static str,
+) -> Figure {
     Figure {
         key,
-        label: label.to_string(),
+        label: label.into(),
         tier: None,
         value,
         unit,
@@ -60,7 +67,7 @@ pub fn fixed(key: &'static str, label: &str, value: f64, unit: &'static str) -> 
 /// (a perfect sensor never drifts) gets no figure: reports hold finite numbers only.
 pub fn per_tier(
     key: &'static str,
-    label: &str,
+    label: &'static str,
     unit: &'static str,
     mut value: impl FnMut(Tier) -> f64,
 ) -> Vec<Figure> {
@@ -81,22 +88,6 @@ pub fn rotor_diameter(claim: &Claim) -> Option<(Length, bool)> {
     }
 }
 
-/// Rounds for headlines: three significant figures.
-pub fn sig3(v: f64) -> String {
-    if !v.is_finite() {
-        return "n/a".to_string();
-    }
-    if v == 0.0 {
-        return "0".to_string();
-    }
-    let digits = 3 - 1 - v.abs().log10().floor() as i32;
-    if digits <= 0 {
-        format!("{:.0}", v)
-    } else {
-        format!("{:.*}", digits as usize, v)
-    }
-}
-
 #[cfg(test)]
 mod tests {
     use super::*;
@@ -109,12 +100,5 @@ mod tests {
             Some(Tier::BestPractice)
         );
         assert_eq!(verdict_of(|_| false), Verdict::Impossible);
-    }
-
-    #[test]
-    fn headline_numbers_keep_three_significant_figures() {
-        assert_eq!(sig3(5.0667), "5.07");
-        assert_eq!(sig3(1234.6), "1235");
-        assert_eq!(sig3(0.012345), "0.0123");
     }
 }

@@ -17,11 +17,12 @@ use serde::Serialize;
 use uom::si::f64::{Force, Length};
 use uom::si::{length::millimeter, torque::newton_meter};
 
-use super::common::{self, fixed, per_tier, sig3, tiered};
+use super::common::{self, fixed, per_tier, tiered};
 use super::thrust_margin;
 use crate::catalog::tiers::{Tier, REACTIVE_TORQUE, THRUST_MISMATCH};
 use crate::claim::{Claim, Layout, Mount, Spin};
 use crate::physics::control::{self, Authority, Axis, Hover, Placement};
+use crate::report::Sig3;
 use crate::report::{Figure, Finding, Verdict};
 
 pub const ID: &str = "control-authority";
@@ -237,7 +238,7 @@ pub fn check(claim: &Claim) -> Finding {
             REACTIVE_TORQUE.at(Tier::PhysicalLimit),
             REACTIVE_TORQUE.at(Tier::BestPractice),
             REACTIVE_TORQUE.at(Tier::Typical),
-            sig3(an.diameter.get::<millimeter>()),
+            Sig3(an.diameter.get::<millimeter>()),
             REACTIVE_TORQUE.basis.describe()
         ),
         "Tilt actuators linearised at hover, each rotor carrying an equal share of the weight.".to_string(),
@@ -332,14 +333,14 @@ pub fn check(claim: &Claim) -> Finding {
                     },
                     rotor_list(s)
                 );
-                figures.push(tiered(key, &label, t, v[t as usize], "N, N m"));
+                figures.push(tiered(key, label, t, v[t as usize], "N, N m"));
             }
         }
     }
     figures.retain(|f: &Figure| f.value.is_finite());
 
     // 3. The words.
-    let at = |t: Tier| sig3(intact[t as usize]);
+    let at = |t: Tier| Sig3(intact[t as usize]);
     let lifts = |t: Tier| thrust[t as usize] * n as f64 >= an.weight;
     let first_bad_set = |t: Tier| claimed_sets().find(|(s, v)| v[t as usize] <= an.margin(t, s));
     let intact_fails = |t: Tier| intact[t as usize] <= an.margin(t, &[]);
@@ -359,7 +360,7 @@ pub fn check(claim: &Claim) -> Finding {
             format!(
                 "Its control margin in hover (ACAI {} with typical rotors) is smaller than the {} N m of a typical {} % thrust mismatch between rotors: a worn propeller or a gust could tip it.",
                 at(Tier::Typical),
-                sig3(an.margin(Tier::Typical, &[])),
+                Sig3(an.margin(Tier::Typical, &[])),
                 (100.0 * THRUST_MISMATCH.at(Tier::Typical)).round()
             ),
             "It would take rotors with more thrust to spare (hovering well below full thrust), or longer arms.".to_string(),
@@ -381,7 +382,7 @@ pub fn check(claim: &Claim) -> Finding {
                     if claimed > 1 { "s" } else { "" },
                     rotor_list(&set),
                     if v <= 0.0 { "cannot make every moment a hover needs" } else { "have too little control to spare" },
-                    sig3(v),
+                    Sig3(v),
                     tier_phrase(t)
                 ),
                 "It would take six or more rotors with thrust to spare and a failure-tolerant spin pattern (for six, P P N N P N: Du et al. 2015), or no claim of rotor-failure tolerance.".to_string(),
@@ -399,7 +400,7 @@ pub fn check(claim: &Claim) -> Finding {
                 format!(
                     "Its rotors can command thrust, roll, pitch and yaw with margin (ACAI {} with typical rotors, against {} N m of a typical thrust mismatch).{after}",
                     at(Tier::Typical),
-                    sig3(an.margin(Tier::Typical, &[]))
+                    Sig3(an.margin(Tier::Typical, &[]))
                 ),
                 "Nothing: its actuators hold a hover with control to spare.".to_string(),
             )

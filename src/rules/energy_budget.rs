@@ -16,7 +16,7 @@ use uom::si::{
     mass::kilogram, power::watt, time::minute,
 };
 
-use super::common::{self, fixed, per_tier, sig3};
+use super::common::{self, fixed, per_tier};
 use super::thrust_margin;
 use crate::catalog::tiers::{self, Tier, AVIONICS_POWER, DEPTH_OF_DISCHARGE};
 use crate::catalog::{self, Chemistry, Drive};
@@ -24,6 +24,7 @@ use crate::claim::{Claim, Layout};
 use crate::physics::atmosphere::Air;
 use crate::physics::{battery, rotor};
 use crate::report::Finding;
+use crate::report::Sig3;
 
 pub const ID: &str = "energy-budget";
 pub const TITLE: &str = "Energy for the stated flight time";
@@ -197,9 +198,9 @@ pub fn check(claim: &Claim) -> Finding {
     let headline = match failed_at {
         Some(t) if !specific_ok(t) => format!(
             "The battery is said to hold {} Wh/kg; {} cells reach at most about {} Wh/kg {}.",
-            sig3(pack_specific.unwrap_or(0.0)),
+            Sig3(pack_specific.unwrap_or(0.0)),
             chem.label,
-            sig3(specific_energy(chem, t)),
+            Sig3(specific_energy(chem, t)),
             match t {
                 Tier::PhysicalLimit => "even in theory",
                 Tier::BestPractice => "at the very best",
@@ -213,20 +214,20 @@ pub fn check(claim: &Claim) -> Finding {
                 Tier::BestPractice => "With the best hardware of its class,",
                 Tier::Typical => "With typical parts,",
             },
-            sig3(minutes(endurance[t as usize])),
-            sig3(claim.claim.flight_time.map_or(0.0, minutes))
+            Sig3(minutes(endurance[t as usize])),
+            Sig3(claim.claim.flight_time.map_or(0.0, minutes))
         ),
         Some(t) => format!(
             "Hovering draws {} C from the battery, above its {} C rating ({}).",
-            sig3(c_rate[t as usize]),
-            sig3(rating),
+            Sig3(c_rate[t as usize]),
+            Sig3(rating),
             t.label()
         ),
         None => format!(
             "The battery gives about {} min of hover with typical parts{}.",
-            sig3(minutes(endurance[Tier::Typical as usize])),
+            Sig3(minutes(endurance[Tier::Typical as usize])),
             match claim.claim.flight_time {
-                Some(ft) => format!(", enough for the claimed {} min", sig3(minutes(ft))),
+                Some(ft) => format!(", enough for the claimed {} min", Sig3(minutes(ft))),
                 None => String::new(),
             }
         ),
@@ -248,10 +249,10 @@ pub fn check(claim: &Claim) -> Finding {
             tiers::figure_of_merit(Tier::PhysicalLimit, diameter),
             tiers::figure_of_merit(Tier::BestPractice, diameter),
             tiers::figure_of_merit(Tier::Typical, diameter),
-            sig3(diameter.get::<uom::si::length::millimeter>()),
-            sig3(tiers::drive_efficiency(Tier::PhysicalLimit, frame.drive)),
-            sig3(tiers::drive_efficiency(Tier::BestPractice, frame.drive)),
-            sig3(tiers::drive_efficiency(Tier::Typical, frame.drive)),
+            Sig3(diameter.get::<uom::si::length::millimeter>()),
+            Sig3(tiers::drive_efficiency(Tier::PhysicalLimit, frame.drive)),
+            Sig3(tiers::drive_efficiency(Tier::BestPractice, frame.drive)),
+            Sig3(tiers::drive_efficiency(Tier::Typical, frame.drive)),
             frame.drive.id(),
             DEPTH_OF_DISCHARGE.at(Tier::PhysicalLimit),
             DEPTH_OF_DISCHARGE.at(Tier::BestPractice),
@@ -274,7 +275,7 @@ pub fn check(claim: &Claim) -> Finding {
     if bat.mass.is_none() {
         assumptions.push(format!(
             "Battery mass not given: taken as {} g from the chemistry's ordinary specific energy.",
-            sig3(pack_mass.get::<gram>())
+            Sig3(pack_mass.get::<gram>())
         ));
     }
     if bat.max_discharge.is_none() {
@@ -332,8 +333,8 @@ fn would_take(
         return format!(
             "No {} battery makes it with typical parts: the longest hover for this airframe is about {} min, with a {} g battery. Lighter parts or larger rotors are needed.",
             chem.id,
-            sig3(times[Tier::Typical as usize].get::<minute>()),
-            sig3(best_mass.get::<gram>())
+            Sig3(times[Tier::Typical as usize].get::<minute>()),
+            Sig3(best_mass.get::<gram>())
         );
     }
     // Endurance rises with battery mass up to twice the airframe: bisect on [current, 2 m0].
@@ -362,10 +363,10 @@ fn would_take(
         .unwrap_or_default();
     format!(
         "A battery of about {} mAh at this voltage ({} g of ordinary {} cells, {} g take-off mass){lift_note}.",
-        sig3(capacity.get::<milliampere_hour>()),
-        sig3(hi.get::<gram>()),
+        Sig3(capacity.get::<milliampere_hour>()),
+        Sig3(hi.get::<gram>()),
         chem.id,
-        sig3(take_off.get::<gram>())
+        Sig3(take_off.get::<gram>())
     )
 }
 

@@ -13,10 +13,11 @@ use uom::si::{
     moment_of_inertia::kilogram_square_meter, time::second,
 };
 
-use super::common::{self, fixed, per_tier, sig3};
+use super::common::{self, fixed, per_tier};
 use crate::catalog::tiers::{Tier, ACCEL_BIAS, GYRO_DRIFT, LEVEL_ERROR, THRUST_MISMATCH};
 use crate::claim::{Claim, PositionSensor};
 use crate::physics::{body, control};
+use crate::report::Sig3;
 use crate::report::{Figure, Finding, Verdict};
 
 pub const ID: &str = "sensing";
@@ -136,7 +137,7 @@ pub fn check(claim: &Claim) -> Finding {
         assumptions.push(format!(
             "Moment of inertia of {}; lever of the farthest rotor {} mm.",
             g.shape,
-            sig3(g.lever.get::<uom::si::length::millimeter>())
+            Sig3(g.lever.get::<uom::si::length::millimeter>())
         ));
         figures.push(fixed(
             "moment_of_inertia",
@@ -186,7 +187,7 @@ pub fn check(claim: &Claim) -> Finding {
                     verdict: v,
                     says: format!(
                         "With no gyroscope the pilot must catch every tip by hand: it tips 30 deg in about {} s, against a reaction time of {} s.",
-                        sig3(tip[Tier::Typical as usize].get::<second>()),
+                        Sig3(tip[Tier::Typical as usize].get::<second>()),
                         REACTION_S
                     ),
                     fix: (v != Verdict::Consistent).then(|| "a rate gyroscope in a stabilising loop".to_string()),
@@ -221,7 +222,7 @@ pub fn check(claim: &Claim) -> Finding {
                     verdict: v,
                     says: format!(
                         "Hands-free with a gyroscope but no accelerometer, its idea of level drifts 5 deg in about {} s with typical parts.",
-                        sig3(drift[Tier::Typical as usize].get::<second>())
+                        Sig3(drift[Tier::Typical as usize].get::<second>())
                     ),
                     fix: (v != Verdict::Consistent).then(|| "an accelerometer to keep the level reference".to_string()),
                 });
@@ -259,7 +260,7 @@ pub fn check(claim: &Claim) -> Finding {
                 verdict: v,
                 says: format!(
                     "It is said to hold its height with no height sensor; the accelerometer alone lets height drift 1 m in about {} s.",
-                    sig3(drift[Tier::Typical as usize].get::<second>())
+                    Sig3(drift[Tier::Typical as usize].get::<second>())
                 ),
                 fix: None,
             });
@@ -304,7 +305,7 @@ pub fn check(claim: &Claim) -> Finding {
             says: format!(
                 "It is said to stay in place with no position sensor; a level error of {} deg slides it 1 m in about {} s.",
                 LEVEL_ERROR.at(Tier::Typical),
-                sig3(drift[Tier::Typical as usize].get::<second>())
+                Sig3(drift[Tier::Typical as usize].get::<second>())
             ),
             fix: (v != Verdict::Consistent).then(|| "a position sensor: optical flow with a range sensor indoors, satellite navigation outdoors".to_string()),
         });
@@ -312,7 +313,7 @@ pub fn check(claim: &Claim) -> Finding {
     if c.altitude_hold || c.position_hold || c.hands_free {
         assumptions.push(format!(
             "Holds are judged {hold_needs}: {} s; a drift of {DRIFT_THAT_MATTERS_M} m or {ATTITUDE_ERROR_DEG} deg matters (common practice).",
-            sig3(hold.get::<second>())
+            Sig3(hold.get::<second>())
         ));
     }
 

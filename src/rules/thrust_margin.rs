@@ -15,13 +15,14 @@ use uom::si::{
     power::watt,
 };
 
-use super::common::{self, fixed, per_tier, sig3};
+use super::common::{self, fixed, per_tier};
 use crate::catalog::tiers::{self, Tier, HOVER_FRACTION_MAX};
 use crate::catalog::{self, Drive, MotorClass};
 use crate::claim::{Claim, Layout};
 use crate::physics::atmosphere::{self, Air};
 use crate::physics::rotor;
 use crate::report::{Finding, Verdict};
+use crate::report::{Fixed, Sig3};
 
 pub const ID: &str = "thrust-margin";
 pub const TITLE: &str = "Thrust and control margin";
@@ -138,9 +139,9 @@ pub fn estimate(claim: &Claim, air: &Air) -> Option<Estimate> {
 pub fn lift(f: Force) -> String {
     let g = f.get::<gram_force>();
     if g.abs() >= 1000.0 {
-        format!("{} kg", sig3(g / 1000.0))
+        format!("{} kg", Sig3(g / 1000.0))
     } else {
-        format!("{} g", sig3(g))
+        format!("{} g", Sig3(g))
     }
 }
 
@@ -273,12 +274,12 @@ fn headline(
         return format!(
             "The stated {} per rotor is {what} on {} W and a {} mm rotor (at most {}).",
             lift(s),
-            sig3(p.get::<watt>()),
-            sig3(d.get::<millimeter>()),
+            Sig3(p.get::<watt>()),
+            Sig3(d.get::<millimeter>()),
             lift(b[tier as usize])
         );
     }
-    let percent = |t: Tier| format!("{} %", sig3(100.0 * fraction(t)));
+    let percent = |t: Tier| format!("{} %", Sig3(100.0 * fraction(t)));
     match verdict {
         Verdict::Impossible => format!(
             "Even perfect rotors of this size and power lift at most {} in all; the craft weighs {weighs}.",
@@ -343,17 +344,17 @@ fn would_take(claim: &Claim, est: &Estimate, w: Force, air: &Air) -> String {
 
 fn assumptions(claim: &Claim, est: &Estimate, air: &Air) -> Vec<String> {
     let mut out = vec![format!(
-        "Air density {:.4} kg/m^3 and gravity {:.4} m/s^2 (ISA at {} m).",
-        air.density.get::<kilogram_per_cubic_meter>(),
-        air.gravity.value,
-        sig3(claim.conditions.altitude.value)
+        "Air density {} kg/m^3 and gravity {} m/s^2 (ISA at {} m).",
+        Fixed(air.density.get::<kilogram_per_cubic_meter>(), 4),
+        Fixed(air.gravity.value, 4),
+        Sig3(claim.conditions.altitude.value)
     )];
     match est.basis {
         Basis::Stated(t) => {
             let read_as = if claim.rotors.max_thrust_from_mass {
                 format!(
                     "rotors.max_thrust was written as a mass and read as gram-force ({} N)",
-                    sig3(t.get::<newton>())
+                    Sig3(t.get::<newton>())
                 )
             } else {
                 "rotors.max_thrust is taken as stated".to_string()
@@ -378,7 +379,7 @@ fn assumptions(claim: &Claim, est: &Estimate, air: &Air) -> Vec<String> {
         if !stated {
             out.push(format!(
                 "Rotor diameter {} mm, the largest usual for the motor class (rotors.diameter not given).",
-                sig3(d.get::<millimeter>())
+                Sig3(d.get::<millimeter>())
             ));
         }
     }
@@ -386,7 +387,7 @@ fn assumptions(claim: &Claim, est: &Estimate, air: &Air) -> Vec<String> {
         if !stated {
             out.push(format!(
                 "Electrical power {} W per motor from the motor class (rotors.max_power not given).",
-                sig3(p.get::<watt>())
+                Sig3(p.get::<watt>())
             ));
         }
     }
@@ -398,13 +399,13 @@ fn assumptions(claim: &Claim, est: &Estimate, air: &Air) -> Vec<String> {
         if off.abs() <= 0.05 {
             out.push(format!(
                 "The parts list adds up to {} g, within 5 % of the mass used.",
-                sig3(total.get::<gram>())
+                Sig3(total.get::<gram>())
             ));
         } else {
             out.push(format!(
                 "The parts list adds up to {} g, {} % {} the stated mass: the stated mass is used.",
-                sig3(total.get::<gram>()),
-                sig3(100.0 * off.abs()),
+                Sig3(total.get::<gram>()),
+                Sig3(100.0 * off.abs()),
                 if off > 0.0 { "above" } else { "below" }
             ));
         }

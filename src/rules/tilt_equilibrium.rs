@@ -12,11 +12,12 @@ use uom::si::{
     velocity::meter_per_second,
 };
 
-use super::common::{self, fixed, per_tier, sig3};
+use super::common::{self, fixed, per_tier};
 use super::thrust_margin::{self, lift};
 use crate::catalog::tiers::{Tier, BODY_DRAG};
 use crate::claim::{BoxSize, Claim, Mount};
 use crate::physics::{body, drag};
+use crate::report::Sig3;
 use crate::report::{Finding, Verdict};
 
 pub const ID: &str = "tilt-equilibrium";
@@ -133,24 +134,24 @@ pub fn check(claim: &Claim) -> Finding {
         common::verdict_of(|t| wind_ok(t) && thrust_ok(t))
     };
 
-    let deg = sig3(tilt.get::<degree>());
+    let deg = Sig3(tilt.get::<degree>());
     let headline = match verdict {
         _ if wind_unknown && verdict == Verdict::NotAssessed => format!(
             "A {deg} deg tilt leaves {} m/s^2 sideways; whether the stated wind holds it needs the body size (craft.size).",
-            sig3(accel.get::<meter_per_second_squared>())
+            Sig3(accel.get::<meter_per_second_squared>())
         ),
         Verdict::Impossible if still_air && !balanced => format!(
             "Tilted {deg} deg with rotors fixed to the body, it would accelerate sideways at {} m/s^2: it cannot hover in still air.",
-            sig3(accel.get::<meter_per_second_squared>())
+            Sig3(accel.get::<meter_per_second_squared>())
         ),
         Verdict::Consistent if balanced && tilt.get::<degree>() > 0.0 => format!(
             "Rotors that tilt back {} deg keep the thrust upright, so a {deg} deg body tilt can be held.",
-            sig3(compensation.get::<degree>())
+            Sig3(compensation.get::<degree>())
         ),
         Verdict::Consistent if balanced => "A level hover leaves no sideways force.".to_string(),
         Verdict::Consistent => format!(
             "The stated {} m/s wind can hold a {deg} deg tilt with typical drag.",
-            sig3(claim.conditions.wind.get::<meter_per_second>())
+            Sig3(claim.conditions.wind.get::<meter_per_second>())
         ),
         _ if !(0..3).all(|i| thrust_ok(Tier::ALL[i])) => format!(
             "Holding the weight at {deg} deg takes {} of thrust, more than the rotors give at the {} tier.",
@@ -159,10 +160,11 @@ pub fn check(claim: &Claim) -> Finding {
         ),
         _ => format!(
             "The stated wind of {} m/s is short of the {} m/s whose drag would hold a {deg} deg tilt.",
-            sig3(claim.conditions.wind.get::<meter_per_second>()),
-            headwind.map_or("?".to_string(), |v| sig3(
+            Sig3(claim.conditions.wind.get::<meter_per_second>()),
+            headwind.map_or("?".to_string(), |v| Sig3(
                 v[Tier::Typical as usize].get::<meter_per_second>()
-            ))
+            )
+            .to_string())
         ),
     };
 
@@ -173,8 +175,8 @@ pub fn check(claim: &Claim) -> Finding {
         if let Some(v) = headwind {
             ways.push(format!(
                 "a steady headwind of about {} m/s (typical drag; {} m/s with the most drag a body can have)",
-                sig3(v[Tier::Typical as usize].get::<meter_per_second>()),
-                sig3(v[Tier::PhysicalLimit as usize].get::<meter_per_second>())
+                Sig3(v[Tier::Typical as usize].get::<meter_per_second>()),
+                Sig3(v[Tier::PhysicalLimit as usize].get::<meter_per_second>())
             ));
         }
         ways.push(format!(
@@ -183,7 +185,7 @@ pub fn check(claim: &Claim) -> Finding {
         ));
         ways.push(format!(
             "rotors that tilt back by {} deg relative to the body",
-            sig3(tilt.get::<degree>())
+            Sig3(tilt.get::<degree>())
         ));
         format!("Any of: {}.", ways.join("; "))
     };

@@ -14,7 +14,7 @@ use crate::claim::{Claim, Spin};
 use crate::report::{Finding, Report};
 
 use super::layout;
-use super::view::{number, Fixed};
+use crate::report::{Fixed, Sig3};
 
 /// One drawing for the page, or the reason it is not drawn.
 #[derive(Debug, Clone)]
@@ -333,7 +333,7 @@ pub fn free_body(report: &Report, claim: &Claim) -> Drawing {
         "end",
         12.0,
         INK,
-        &format!("weight {} N", number(f.weight)),
+        &format!("weight {} N", Sig3(f.weight)),
     );
     if f.unbalanced > 0.0 {
         svg.line(vertical_tip, thrust_tip, MUTED, 1.0, true);
@@ -344,7 +344,7 @@ pub fn free_body(report: &Report, claim: &Claim) -> Drawing {
             "end",
             11.0,
             MUTED,
-            &format!("upward part {} N", number(f.weight)),
+            &format!("upward part {} N", Sig3(f.weight)),
         );
         svg.arrow(centre, horizontal_tip, FORCE, 2.5, true);
         svg.text(
@@ -352,7 +352,7 @@ pub fn free_body(report: &Report, claim: &Claim) -> Drawing {
             "start",
             12.0,
             FORCE,
-            &format!("unbalanced {} N", number(f.unbalanced)),
+            &format!("unbalanced {} N", Sig3(f.unbalanced)),
         );
         // The tilt angle, between the vertical and the thrust.
         let r = 34.0;
@@ -377,7 +377,7 @@ pub fn free_body(report: &Report, claim: &Claim) -> Drawing {
             "start",
             11.0,
             INK,
-            &format!("tilt {} deg", number(f.tilt_deg)),
+            &format!("tilt {} deg", Sig3(f.tilt_deg)),
         );
     }
     svg.arrow(centre, thrust_tip, THRUST, 3.0, false);
@@ -386,7 +386,7 @@ pub fn free_body(report: &Report, claim: &Claim) -> Drawing {
         "start",
         12.0,
         THRUST,
-        &format!("thrust {} N", number(f.thrust)),
+        &format!("thrust {} N", Sig3(f.thrust)),
     );
 
     // Scale bar, bottom right.
@@ -398,23 +398,23 @@ pub fn free_body(report: &Report, claim: &Claim) -> Drawing {
         "end",
         11.0,
         INK,
-        &format!("{} N", number(step)),
+        &format!("{} N", Sig3(step)),
     );
 
     let caption = if f.unbalanced > 0.0 {
         format!(
             "Side view, to scale ({} N per bar). Tilted {} deg, the rotors must push {} N to carry the {} N weight, and the forward part of that push, {} N, has nothing to balance it in still air: the craft would accelerate forward.",
-            number(step),
-            number(f.tilt_deg),
-            number(f.thrust),
-            number(f.weight),
-            number(f.unbalanced)
+            Sig3(step),
+            Sig3(f.tilt_deg),
+            Sig3(f.thrust),
+            Sig3(f.weight),
+            Sig3(f.unbalanced)
         )
     } else {
         format!(
             "Side view, to scale ({} N per bar). Level, the rotors carry the {} N weight straight up; no force is left over.",
-            number(step),
-            number(f.weight)
+            Sig3(step),
+            Sig3(f.weight)
         )
     };
     Drawing {
@@ -435,7 +435,7 @@ fn axis(svg: &mut Svg, max: f64, y: f64, unit: &str) {
     while v <= max * 1.0001 {
         let x = BAR_X + v / max * BAR_W;
         svg.line((x, y), (x, y + 4.0), MUTED, 1.0, false);
-        svg.text((x, y + 15.0), "middle", 10.0, MUTED, &number(v));
+        svg.text((x, y + 15.0), "middle", 10.0, MUTED, &Sig3(v).to_string());
         v += step;
     }
     svg.line((BAR_X, y), (BAR_X + BAR_W, y), MUTED, 1.0, false);
@@ -487,12 +487,7 @@ pub fn thrust_bar(report: &Report) -> Drawing {
         svg.rect(BAR_X, y + 2.0, end - BAR_X, 18.0, FILL_A, THRUST);
         let hover_x = x_of(available * hover_share);
         svg.line((hover_x, y - 1.0), (hover_x, y + 23.0), INK, 2.5, false);
-        bar_label(
-            &mut svg,
-            end,
-            y + 15.0,
-            &format!("{} N", number(*available)),
-        );
+        bar_label(&mut svg, end, y + 15.0, &format!("{} N", Sig3(*available)));
     }
     let wx = x_of(weight);
     svg.line((wx, top - 8.0), (wx, bottom), FORCE, 2.0, true);
@@ -501,7 +496,7 @@ pub fn thrust_bar(report: &Report) -> Drawing {
         "middle",
         11.0,
         FORCE,
-        &format!("weight {} N", number(weight)),
+        &format!("weight {} N", Sig3(weight)),
     );
     axis(&mut svg, max, bottom, "newtons");
     svg.text(
@@ -516,7 +511,7 @@ pub fn thrust_bar(report: &Report) -> Drawing {
     );
     let caption = format!(
         "Bars to scale: the thrust all rotors give at full power under each set of assumptions. The dashed line is the weight, {} N; the solid mark on each bar is {:.0} % of that bar, the most a craft should spend just to hover.",
-        number(weight),
+        Sig3(weight),
         hover_share * 100.0
     );
     Drawing {
@@ -569,7 +564,7 @@ pub fn energy_bar(report: &Report) -> Drawing {
             &mut svg,
             end,
             y + 11.0,
-            &format!("stored {} Wh", number(*stored)),
+            &format!("stored {} Wh", Sig3(*stored)),
         );
         if let Some(needed) = needed {
             let end = x_of(*needed);
@@ -578,7 +573,7 @@ pub fn energy_bar(report: &Report) -> Drawing {
                 &mut svg,
                 end,
                 y + 28.0,
-                &format!("needed {} Wh", number(*needed)),
+                &format!("needed {} Wh", Sig3(*needed)),
             );
         }
     }
@@ -593,7 +588,7 @@ pub fn energy_bar(report: &Report) -> Drawing {
     let caption = match claimed_min {
         Some(min) if rows.iter().any(|r| r.2.is_some()) => format!(
             "Bars to scale: the battery's usable energy under each set of assumptions, and the energy hovering for the claimed {} min takes at that set's hover power.",
-            number(min)
+            Sig3(min)
         ),
         _ => "Bars to scale: the battery's usable energy under each set of assumptions. No flight time is claimed, so no energy needed is drawn.".to_string(),
     };
@@ -680,13 +675,13 @@ pub fn rotor_failure(claim: &Claim) -> Option<Drawing> {
     let caption = if typical > ZERO_AUTHORITY {
         format!(
             "Top view ({scale_note} per bar) with rotor {lost} stopped, the loss that hurts most. The rest can still hold a hover: their available control authority index (Du et al. 2015) stays at {} with typical hardware.",
-            number(typical)
+            Sig3(typical)
         )
     } else {
         let index = if typical.abs() <= ZERO_AUTHORITY {
             "zero".to_string()
         } else {
-            format!("{}, below zero", number(typical))
+            format!("{}, below zero", Sig3(typical))
         };
         format!(
             "Top view ({scale_note} per bar) with rotor {lost} stopped, the loss that hurts most. The rest cannot hold a hover: their available control authority index (Du et al. 2015) is {index} with typical hardware, so some moment the craft needs is out of reach."
@@ -780,7 +775,7 @@ fn draw_plan(plan: &layout::Plan, lost: Option<usize>) -> (Svg, String) {
     let step_m = nice_step(extent * 2.0);
     let bar = step_m * scale;
     svg.line((300.0 - bar, 305.0), (300.0, 305.0), INK, 2.0, false);
-    let step_label = format!("{} mm", number(step_m * 1000.0));
+    let step_label = format!("{} mm", Sig3(step_m * 1000.0));
     svg.text((300.0, 298.0), "end", 11.0, INK, &step_label);
     (svg, step_label)
 }

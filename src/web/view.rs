@@ -3,12 +3,14 @@
 //! escapes every field for HTML; only the server-built SVG in
 //! [`super::figures`] and the fixed icons below are inserted unescaped.
 
+use std::borrow::Cow;
+
 use askama::Template;
 use axum::http::StatusCode;
 
 use crate::catalog::tiers::{self, Tier};
 use crate::claim::Claim;
-use crate::report::{Figure, Finding, Report, Verdict};
+use crate::report::{sig3, Figure, Finding, Report, Verdict};
 use crate::rules;
 use crate::sources::{self, Source};
 
@@ -16,105 +18,17 @@ use super::figures::{self, Drawing};
 use super::form::FormView;
 use super::LoadedDemo;
 
-/// `v` with `places` decimals, byte for byte as `format!("{v:.places$}")`
-/// writes it, without the standard library's exact float-to-decimal path:
-/// for a fixed precision that tries Grisu and falls back to Dragon4 bignum
-/// arithmetic, and it was a quarter of the verdict page's CPU under load
-/// (tests/load.sh), in the drawings' coordinates and the figure tables.
-/// Here the value is scaled by the exact power of ten and rounded as an
-/// integer; a value within a hair of a tie (where the exact binary value
-/// decides the rounding) or too large for the scaled product to be exact to
-/// 1e-6 goes to the standard formatter.
-pub struct Fixed(pub f64, pub usize);
-
-impl std::fmt::Display for Fixed {
-    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
-        let Fixed(v, places) = *self;
-        const POW10: [u64; 13] = [
-            1,
-            10,
-            100,
-            1_000,
-            10_000,
-            100_000,
-            1_000_000,
-            10_000_000,
-            100_000_000,
-            1_000_000_000,
-            10_000_000_000,
-            100_000_000_000,
-            1_000_000_000_000,
-        ];
-        let Some(&unit) = POW10.get(places) else {
-            return write!(f, "{v:.places$}");
-        };
-        // Powers of ten up to 1e22 are exact in f64; below 1e9 the product's
-        // rounding error stays under 1.2e-7.
-        let scaled = v * unit as f64;
-        if scaled.is_nan() || scaled.abs() >= 1e9 {
-            return write!(f, "{v:.places$}");
-        }
-        let rounded = scaled.round();
-        if ((scaled - rounded).abs() - 0.5).abs() < 1e-6 {
-            return write!(f, "{v:.places$}");
-        }
-        // The digits, last first, into a buffer on the stack: the
-        // formatting machinery per part cost as much as the rounding saved.
-        // n < 1e9 with at most 12 places: 13 digits, the point and a sign.
-        let mut n = rounded.abs() as u64;
-        let mut buf = [0u8; 16];
-        let mut at = buf.len();
-        let mut written = 0;
-        while n > 0 || written <= places {
-            if written == places && places > 0 {
-                at -= 1;
-                buf[at] = b'.';
-            }
-            at -= 1;
-            buf[at] = b'0' + (n % 10) as u8;
-            n /= 10;
-            written += 1;
-        }
-        // The standard formatter keeps the sign of a negative value that
-        // rounds to zero ("-0.0").
-        if v.is_sign_negative() {
-            at -= 1;
-            buf[at] = b'-';
-        }
-        // Only ASCII digits, '.' and '-' were written.
-        f.write_str(std::str::from_utf8(&buf[at..]).unwrap_or("?"))
-    }
-}
-
-/// A number for people: three significant figures, no exponent.
-pub fn number(v: f64) -> String {
-    if !v.is_finite() {
-        return if v.is_nan() {
-            "n/a".into()
-        } else if v > 0.0 {
-            "unbounded".into()
-        } else {
-            "-unbounded".into()
-        };
-    }
-    if v == 0.0 {
-        return "0".into();
-    }
-    let digits = 2 - v.abs().log10().floor() as i32;
-    Fixed(v, digits.clamp(0, 12) as usize).to_string()
-}
-
 /// A figure's value: counts as whole numbers, everything else by [`number`].
 fn figure_value(f: &Figure) -> String {
     if f.unit == "1" && f.value.is_finite() && f.value.fract() == 0.0 && f.value.abs() < 1e9 {
         format!("{}", f.value as i64)
     } else {
-        number(f.value)
+        sig3(f.value)
     }
 }
 
 /// A unit as the table prints it; a pure number is marked as a ratio.
-fn unit_label(unit: &str) -> &str {
+fn unit_label(unit: &'static str) -> &'static str {
     match unit {
         "1" | "" => "no unit",
         u => u,
@@ -189,8 +103,8 @@ fn rule_title(id: &str) -> &str {
 #[derive(Debug, Clone)]
 pub struct FigureRow {
     pub key: &'static str,
-    pub label: String,
-    pub unit: String,
+    pub label: Cow<'static, str>,
+    pub unit: &'static str,
     /// Values at physical limit, best practice, typical; "-" where missing.
     pub by_tier: Vec<String>,
     /// The value of a tier-independent figure.
@@ -208,7 +122,7 @@ pub fn figure_rows(figures: &[Figure]) -> Vec<FigureRow> {
                 rows.push(FigureRow {
                     key: f.key,
                     label: f.label.clone(),
-                    unit: unit_label(f.unit).to_string(),
+                    unit: unit_label(f.unit),
                     by_tier: vec!["-".to_string(); Tier::ALL.len()],
                     fixed: None,
                 });
@@ -426,13 +340,13 @@ impl MethodsPage {
                     key: r.key,
                     label: r.label,
                     unit: unit_label(r.unit),
-                    values: r.values.iter().map(|v| number(*v)).collect(),
+                    values: r.values.iter().map(|v| sig3(*v)).collect(),
                     basis: r.basis.describe(),
                 })
                 .collect(),
             sources: sources::SOURCES,
             verdicts: Verdict::ALL.iter().map(|v| VerdictView::of(*v)).collect(),
-            hover_share: number(tiers::HOVER_FRACTION_MAX.at(Tier::Typical) * 100.0),
+            hover_share: sig3(tiers::HOVER_FRACTION_MAX.at(Tier::Typical) * 100.0),
         }
     }
 }
@@ -466,69 +380,10 @@ mod tests {
     use super::*;
 
     #[test]
-    fn fixed_writes_exactly_what_the_standard_formatter_writes() {
-        let mut values = vec![
-            0.0,
-            -0.0,
-            0.04,
-            -0.04,
-            0.05,
-            -0.05,
-            0.15,
-            0.25,
-            0.35,
-            2.5,
-            -2.5,
-            12.25,
-            99.95,
-            1e-20,
-            1e8,
-            -1e8,
-            1e9,
-            1e300,
-            123.456,
-            0.1 + 0.2,
-            f64::NAN,
-            f64::INFINITY,
-        ];
-        // Every tie k/20 over a range, and a spread of awkward values.
-        values.extend((-4000..4000).map(|k| f64::from(k) / 20.0));
-        let mut x: u64 = 0x9E37_79B9_7F4A_7C15;
-        for _ in 0..20_000 {
-            x ^= x << 13;
-            x ^= x >> 7;
-            x ^= x << 17;
-            let unit = (x >> 11) as f64 / (1u64 << 53) as f64;
-            values.push((unit - 0.5) * 2000.0);
-            values.push((unit * 1000.0).round() / 1000.0);
-            values.push(unit * 10f64.powi((x % 13) as i32 - 6));
-        }
-        for v in values {
-            for places in [0, 1, 2, 3, 5, 12, 13] {
-                assert_eq!(
-                    Fixed(v, places).to_string(),
-                    format!("{v:.places$}"),
-                    "{v:?} to {places}"
-                );
-            }
-        }
-    }
-
-    #[test]
-    fn numbers_keep_three_significant_figures_without_exponents() {
-        assert_eq!(number(5.0667), "5.07");
-        assert_eq!(number(3.0), "3.00");
-        assert_eq!(number(1234.6), "1235");
-        assert_eq!(number(0.012345), "0.0123");
-        assert_eq!(number(f64::INFINITY), "unbounded");
-        assert_eq!(number(-2.5), "-2.50");
-    }
-
-    #[test]
     fn figures_group_by_key_with_tier_free_values_apart() {
         let fig = |key, tier, value, unit| Figure {
             key,
-            label: key.to_string(),
+            label: key.to_string().into(),
             tier,
             value,
             unit,

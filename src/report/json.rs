@@ -1,0 +1,290 @@
+//! The report as JSON text, written by hand for speed: byte for byte what
+//! `serde_json` writes from the derived `Serialize` (compact, or with its
+//! two-space indentation), as the tests check.
+//!
+//! serde_json looks at every byte of a string on its own before copying it,
+//! and the report is mostly text: that loop was half the time of writing a
+//! report (criterion, `render-json`) and a tenth of the API's CPU under load
+//! (tests/load.sh). Here clean runs are skipped eight bytes at a time and
+//! copied whole. Numbers are still written by serde_json, so they keep its
+//! shortest round-trip form.
+
+use serde::Serialize;
+
+use super::{Figure, Finding, Report};
+
+/// The report as one line of JSON, for clients that parse it.
+pub fn compact(report: &Report) -> Vec<u8> {
+    write(report, false)
+}
+
+/// The report indented two spaces per level, for files people open.
+pub fn indented(report: &Report) -> Vec<u8> {
+    write(report, true)
+}
+
+fn write(report: &Report, pretty: bool) -> Vec<u8> {
+    let mut w = Writer {
+        out: Vec::with_capacity(if pretty { 24 * 1024 } else { 16 * 1024 }),
+        pretty,
+        depth: 0,
+        first: true,
+    };
+    w.open(b'{');
+    w.key("schema");
+    w.str(report.schema);
+    w.key("title");
+    w.str(&report.title);
+    w.key("verdict");
+    w.str(report.verdict.id());
+    w.key("findings");
+    w.open(b'[');
+    for f in &report.findings {
+        w.item();
+        finding(&mut w, f);
+    }
+    w.close(b']');
+    w.key("cautions");
+    w.strings(report.cautions.iter().copied());
+    w.key("engine");
+    w.str(report.engine);
+    w.close(b'}');
+    w.out
+}
+
+fn finding(w: &mut Writer, f: &Finding) {
+    w.open(b'{');
+    w.key("rule");
+    w.str(f.rule);
+    w.key("verdict");
+    w.str(f.verdict.id());
+    w.key("headline");
+    w.str(&f.headline);
+    w.key("figures");
+    w.open(b'[');
+    for g in &f.figures {
+        w.item();
+        figure(w, g);
+    }
+    w.close(b']');
+    w.key("would_take");
+    w.str(&f.would_take);
+    w.key("assumptions");
+    w.strings(f.assumptions.iter().map(String::as_str));
+    w.key("sources");
+    w.strings(f.sources.iter().copied());
+    w.close(b'}');
+}
+
+fn figure(w: &mut Writer, g: &Figure) {
+    w.open(b'{');
+    w.key("key");
+    w.str(g.key);
+    w.key("label");
+    w.str(&g.label);
+    if let Some(t) = g.tier {
+        w.key("tier");
+        w.str(t.id());
+    }
+    w.key("value");
+    w.number(g.value);
+    w.key("unit");
+    w.str(g.unit);
+    w.close(b'}');
+}
+
+/// Punctuation and indentation as serde_json's compact and pretty
+/// formatters place them.
+struct Writer {
+    out: Vec<u8>,
+    pretty: bool,
+    depth: usize,
+    /// No member has been written since the last `{` or `[`.
+    first: bool,
+}
+
+impl Writer {
+    fn open(&mut self, bracket: u8) {
+        self.out.push(bracket);
+        self.depth += 1;
+        self.first = true;
+    }
+
+    fn close(&mut self, bracket: u8) {
+        self.depth -= 1;
+        if !self.first {
+            self.newline();
+        }
+        self.out.push(bracket);
+        self.first = false;
+    }
+
+    /// Before an array element: the comma and line break.
+    fn item(&mut self) {
+        if !self.first {
+            self.out.push(b',');
+        }
+        self.first = false;
+        self.newline();
+    }
+
+    fn key(&mut self, key: &str) {
+        self.item();
+        self.str(key);
+        self.out
+            .extend_from_slice(if self.pretty { b": " } else { b":" });
+    }
+
+    fn newline(&mut self) {
+        if self.pretty {
+            self.out.push(b'\n');
+            self.out.resize(self.out.len() + 2 * self.depth, b' ');
+        }
+    }
+
+    fn strings<'s>(&mut self, items: impl Iterator<Item = &'s str>) {
+        self.open(b'[');
+        for s in items {
+            self.item();
+            self.str(s);
+        }
+        self.close(b']');
+    }
+
+    fn number(&mut self, v: f64) {
+        // serde_json writes a finite f64 in its shortest round-trip form and
+        // a non-finite one as null; writing into a Vec cannot fail.
+        let _ = v.serialize(&mut serde_json::Serializer::new(&mut self.out));
+    }
+
+    /// A JSON string (RFC 8259 section 7) with serde_json's escapes: the
+    /// short forms for \b \t \n \f \r, `\u00XX` for other control bytes.
+    fn str(&mut self, s: &str) {
+        let bytes = s.as_bytes();
+        self.out.push(b'"');
+        let mut start = 0;
+        let mut i = 0;
+        while i < bytes.len() {
+            while let Some(chunk) = bytes.get(i..i + 8) {
+                let word = u64::from_le_bytes(chunk.try_into().unwrap_or([0; 8]));
+                if any_to_escape(word) {
+                    break;
+                }
+                i += 8;
+            }
+            let Some(&b) = bytes.get(i) else { break };
+            if let Some(escape) = escape(b) {
+                self.out.extend_from_slice(&bytes[start..i]);
+                match escape {
+                    Escape::Short(c) => self.out.extend_from_slice(&[b'\\', c]),
+                    Escape::Unicode => {
+                        const HEX: &[u8; 16] = b"0123456789abcdef";
+                        self.out.extend_from_slice(b"\\u00");
+                        self.out.push(HEX[usize::from(b >> 4)]);
+                        self.out.push(HEX[usize::from(b & 0xf)]);
+                    }
+                }
+                start = i + 1;
+            }
+            i += 1;
+        }
+        self.out.extend_from_slice(&bytes[start..]);
+        self.out.push(b'"');
+    }
+}
+
+enum Escape {
+    Short(u8),
+    Unicode,
+}
+
+fn escape(b: u8) -> Option<Escape> {
+    Some(match b {
+        b'"' => Escape::Short(b'"'),
+        b'\\' => Escape::Short(b'\\'),
+        0x08 => Escape::Short(b'b'),
+        b'\t' => Escape::Short(b't'),
+        b'\n' => Escape::Short(b'n'),
+        0x0c => Escape::Short(b'f'),
+        b'\r' => Escape::Short(b'r'),
+        0x00..=0x1f => Escape::Unicode,
+        _ => return None,
+    })
+}
+
+/// Whether any of eight bytes is a control byte, `"` or `\`: the
+/// "has a byte less than n" and "has a zero byte" tests of Anderson's Bit
+/// Twiddling Hacks, which are exact about whether such a byte exists.
+fn any_to_escape(word: u64) -> bool {
+    const ONES: u64 = 0x0101_0101_0101_0101;
+    const HIGHS: u64 = 0x8080_8080_8080_8080;
+    let has_zero = |v: u64| v.wrapping_sub(ONES) & !v & HIGHS != 0;
+    let below_space = word.wrapping_sub(ONES * 0x20) & !word & HIGHS != 0;
+    below_space
+        || has_zero(word ^ (ONES * u64::from(b'"')))
+        || has_zero(word ^ (ONES * u64::from(b'\\')))
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::report::{Tier, Verdict};
+
+    fn report_with(text: &str) -> Report {
+        let figure = |tier| Figure {
+            key: "k",
+            label: text.to_string().into(),
+            tier,
+            value: 0.1 + 0.2,
+            unit: "N",
+        };
+        let finding = Finding {
+            rule: "r",
+            verdict: Verdict::Doubtful,
+            headline: text.to_string(),
+            figures: vec![figure(Some(Tier::Typical)), figure(None)],
+            would_take: String::new(),
+            assumptions: vec![text.to_string(), String::new()],
+            sources: Vec::new(),
+        };
+        Report::new(text.to_string(), vec![finding.clone(), finding])
+    }
+
+    #[test]
+    fn both_forms_are_what_serde_json_writes_for_every_escape() {
+        // RFC 8259 section 7 escapes, at every offset within an 8-byte word,
+        // next to multi-byte UTF-8.
+        let tricky = "\"\\\u{8}\t\n\u{c}\r\u{0}\u{1f}\u{7f}é→😀/";
+        for pad in 0..9 {
+            for c in tricky.chars() {
+                let text = format!("{}{c}{}", "a".repeat(pad), "b".repeat(9 - pad));
+                let r = report_with(&text);
+                assert_eq!(
+                    String::from_utf8(compact(&r)).unwrap(),
+                    serde_json::to_string(&r).unwrap(),
+                    "{text:?}"
+                );
+                assert_eq!(
+                    String::from_utf8(indented(&r)).unwrap(),
+                    serde_json::to_string_pretty(&r).unwrap(),
+                    "{text:?}"
+                );
+            }
+        }
+    }
+
+    #[test]
+    fn the_word_test_finds_each_byte_to_escape_and_only_those() {
+        for b in 0..=255u8 {
+            for at in 0..8 {
+                let mut word = [b'a'; 8];
+                word[at] = b;
+                assert_eq!(
+                    any_to_escape(u64::from_le_bytes(word)),
+                    escape(b).is_some(),
+                    "byte {b:#04x} at {at}"
+                );
+            }
+        }
+    }
+}
