@@ -434,34 +434,25 @@ pub struct RotorView {
     pub lost: bool,
 }
 
-/// One row of the failure table: the rotors lost (from 1) and the ACAI at each tier.
-#[derive(Debug, Clone, PartialEq, Serialize)]
-pub struct FailureRow {
-    pub lost: Vec<usize>,
-    pub acai: [f64; 3],
-}
-
-/// What the web layer draws: the rotors (with `lost` ones marked), the axes the
-/// remaining actuators cannot command, and the failure table when thrust is known.
+/// What the web layer draws: the rotors (with `lost` ones marked) and the
+/// axes the remaining actuators cannot command.
 #[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct LayoutView {
     pub rotors: Vec<RotorView>,
     pub rank: usize,
     pub lacking: Vec<Axis>,
-    pub failures: Vec<FailureRow>,
 }
 
 /// The top view of the claim's rotors with the rotors numbered in `lost` (from 1) stopped.
 pub fn layout_view(claim: &Claim, lost: &[usize]) -> Option<LayoutView> {
     let an = analyse(claim).ok()?;
     let lost: Vec<usize> = lost.iter().filter_map(|i| i.checked_sub(1)).collect();
-    let share = an.weight / an.placements.len() as f64;
-    let e = control::effectiveness(&an.placements, share, an.torque_ratio(Tier::Typical));
-    let authority = control::authority(&e.without(&lost));
-    let size = failure_search(claim, an.placements.len());
-    let failures = match an.thrust {
-        Some(_) => an.failures(size).unwrap_or_default(),
-        None => Vec::new(),
+    let authority = if lost.is_empty() {
+        an.authority
+    } else {
+        let share = an.weight / an.placements.len() as f64;
+        let e = control::effectiveness(&an.placements, share, an.torque_ratio(Tier::Typical));
+        control::authority(&e.without(&lost))
     };
     Some(LayoutView {
         rotors: an
@@ -483,14 +474,21 @@ pub fn layout_view(claim: &Claim, lost: &[usize]) -> Option<LayoutView> {
             .collect(),
         rank: authority.rank,
         lacking: authority.lacking,
-        failures: failures
-            .into_iter()
-            .map(|(s, acai)| FailureRow {
-                lost: s.iter().map(|i| i + 1).collect(),
-                acai,
-            })
-            .collect(),
     })
+}
+
+/// The single rotor (numbered from 1) whose loss leaves the least control
+/// authority at the typical tier, with the ACAI at each tier after losing it
+/// (Du, Quan, Yang, Cai 2015: below zero, hover cannot be held). `None` when
+/// the rule could not search failures (no thrust estimate, too many actuators).
+pub fn worst_single_loss(claim: &Claim) -> Option<(usize, [f64; 3])> {
+    let an = analyse(claim).ok()?;
+    an.thrust?;
+    an.failures(1)?
+        .into_iter()
+        .filter(|(_, acai)| acai.iter().all(|a| a.is_finite()))
+        .min_by(|a, b| a.1[2].total_cmp(&b.1[2]))
+        .map(|(lost, acai)| (lost[0] + 1, acai))
 }
 
 #[cfg(test)]
@@ -715,10 +713,7 @@ mod tests {
             "",
         );
         let view = layout_view(&quad, &[]).unwrap();
-        assert_eq!(
-            (view.rotors.len(), view.rank, view.failures.len()),
-            (4, 4, 4)
-        );
+        assert_eq!((view.rotors.len(), view.rank), (4, 4));
         assert!((view.rotors[0].x_mm - 159.1).abs() < 0.1 && view.rotors[0].y_mm < 0.0);
         let two_lost = layout_view(&quad, &[1, 3]).unwrap();
         assert!(two_lost.rotors[0].lost && !two_lost.rotors[1].lost);

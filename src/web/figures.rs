@@ -13,6 +13,8 @@ use crate::catalog::tiers::{self, Tier};
 use crate::claim::{Claim, Spin};
 use crate::report::{Finding, Report};
 
+use crate::rules::control_authority;
+
 use super::layout;
 use crate::report::{Fixed, Sig3};
 
@@ -41,14 +43,16 @@ impl Drawing {
 
 /// Every drawing of a report, in page order.
 pub fn all(report: &Report, claim: &Claim) -> Vec<Drawing> {
+    // One plan for both top views: placing the rotors runs the control analysis.
+    let plan = layout::plan(claim);
     [
         free_body(report, claim),
         thrust_bar(report),
         energy_bar(report),
-        rotor_layout(claim),
+        rotor_layout(claim, plan.as_ref()),
     ]
     .into_iter()
-    .chain(rotor_failure(claim))
+    .chain(rotor_failure(claim, plan.as_ref()))
     .collect()
 }
 
@@ -601,10 +605,10 @@ pub fn energy_bar(report: &Report) -> Drawing {
 }
 
 /// Top view of the rotors: positions, disc size, spin senses and numbers.
-pub fn rotor_layout(claim: &Claim) -> Drawing {
+pub fn rotor_layout(claim: &Claim, plan: Option<&layout::Plan>) -> Drawing {
     const ID: &str = "fig-layout";
     const TITLE: &str = "Rotor layout, seen from above";
-    let Some(plan) = layout::plan(claim).filter(|p| !p.rotors.is_empty()) else {
+    let Some(plan) = plan.filter(|p| !p.rotors.is_empty()) else {
         return Drawing::omitted(
             ID,
             TITLE,
@@ -614,7 +618,7 @@ pub fn rotor_layout(claim: &Claim) -> Drawing {
             ),
         );
     };
-    let (svg, scale_note) = draw_plan(&plan, None);
+    let (svg, scale_note) = draw_plan(plan, None);
     let mut caption = format!(
         "Top view, to scale ({scale_note} per bar), front up: {} rotor{}, numbered from the nose clockwise, each marked with its spin as seen from above.",
         plan.rotors.len(),
@@ -655,21 +659,21 @@ const ZERO_AUTHORITY: f64 = 1e-6;
 
 /// For a claim that it survives a rotor failure: the layout with the worst
 /// single loss stopped, and whether the rest can still hold a hover.
-pub fn rotor_failure(claim: &Claim) -> Option<Drawing> {
+pub fn rotor_failure(claim: &Claim, plan: Option<&layout::Plan>) -> Option<Drawing> {
     const ID: &str = "fig-failure";
     const TITLE: &str = "If the worst rotor stops";
     if claim.claim.survives_rotor_failure == 0 {
         return None;
     }
-    let plan = layout::plan(claim).filter(|p| p.rotors.len() > 1)?;
-    let Some((lost, acai)) = layout::worst_single_loss(claim) else {
+    let plan = plan.filter(|p| p.rotors.len() > 1)?;
+    let Some((lost, acai)) = control_authority::worst_single_loss(claim) else {
         return Some(Drawing::omitted(
             ID,
             TITLE,
             "the control-authority check could not search rotor failures for this sheet.",
         ));
     };
-    let (svg, scale_note) = draw_plan(&plan, Some(lost));
+    let (svg, scale_note) = draw_plan(plan, Some(lost));
     let typical = acai[2];
     // An index within rounding of zero is zero: no margin at all for some moment.
     let caption = if typical > ZERO_AUTHORITY {
@@ -932,14 +936,16 @@ mod tests {
         // Du, Quan, Yang, Cai (2015): a quadrotor that loses any rotor has ACAI < 0,
         // so the drawing must say the rest cannot hold a hover.
         let claim = sheet("max_thrust = \"600 g\"\n[claim]\nsurvives_rotor_failure = 1");
-        let d = rotor_failure(&claim).expect("drawn for a claimed failure");
+        let d = rotor_failure(&claim, layout::plan(&claim).as_ref())
+            .expect("drawn for a claimed failure");
         assert!(
             d.svg.as_ref().unwrap().contains(" stopped</text>"),
             "{:?}",
             d.svg
         );
         assert!(d.caption.contains("cannot hold a hover"), "{}", d.caption);
-        assert!(rotor_failure(&sheet("max_thrust = \"600 g\"")).is_none());
+        let unclaimed = sheet("max_thrust = \"600 g\"");
+        assert!(rotor_failure(&unclaimed, layout::plan(&unclaimed).as_ref()).is_none());
     }
 
     #[test]
@@ -951,7 +957,7 @@ mod tests {
                     arm = \"275 mm\"\ndiameter = \"10 in\"\nmax_thrust = \"6.125 N\"\n\
                     [claim]\nsurvives_rotor_failure = 1";
         let claim = claim::parse(text, Format::Toml).unwrap();
-        let d = rotor_failure(&claim).unwrap();
+        let d = rotor_failure(&claim, layout::plan(&claim).as_ref()).unwrap();
         assert!(
             d.caption.contains("index (Du et al. 2015) is zero"),
             "{}",

@@ -93,19 +93,6 @@ pub fn plan(claim: &Claim) -> Option<Plan> {
     })
 }
 
-/// The single rotor (numbered from 1) whose loss leaves the least control
-/// authority at the typical tier, with the ACAI at each tier after losing it
-/// (Du, Quan, Yang, Cai 2015: below zero, hover cannot be held). `None` when
-/// the rule could not search failures.
-pub fn worst_single_loss(claim: &Claim) -> Option<(usize, [f64; 3])> {
-    let view = control_authority::layout_view(claim, &[])?;
-    view.failures
-        .iter()
-        .filter(|f| f.lost.len() == 1 && f.acai.iter().all(|a| a.is_finite()))
-        .min_by(|a, b| a.acai[2].total_cmp(&b.acai[2]))
-        .map(|f| (f.lost[0], f.acai))
-}
-
 #[cfg(test)]
 mod tests {
     use super::*;
@@ -153,7 +140,7 @@ mod tests {
         let claim = claim_of(
             "layout = \"quad-x\"\narm = \"225 mm\"\ndiameter = \"10 in\"\nmax_thrust = \"600 g\"",
         );
-        let (rotor, acai) = worst_single_loss(&claim).unwrap();
+        let (rotor, acai) = control_authority::worst_single_loss(&claim).unwrap();
         assert!((1..=4).contains(&rotor));
         assert!(acai[2] < 0.0, "{acai:?}");
     }

@@ -1,12 +1,15 @@
 //! Parse, check and render for each demo claim (criterion). Target: a whole
-//! check, every rule included, under 50 microseconds median.
+//! check, every rule included, under 50 microseconds median. The page bench
+//! is the verdict page a posted sheet gets: its view, drawings and HTML.
 
 use criterion::{criterion_group, criterion_main, Criterion};
 use std::hint::black_box;
 
+use askama::Template;
 use liftaudit::claim::{self, demo};
-use liftaudit::report::render_text;
+use liftaudit::report::{json, render_text};
 use liftaudit::rules;
+use liftaudit::web::view::{Downloads, VerdictPage};
 
 fn engine(c: &mut Criterion) {
     for d in demo::DEMOS {
@@ -26,8 +29,20 @@ fn engine(c: &mut Criterion) {
         c.bench_function(&format!("render-json/{}", d.name), |b| {
             b.iter(|| black_box(&report).to_json())
         });
+        c.bench_function(&format!("render-json-compact/{}", d.name), |b| {
+            b.iter(|| json::compact(black_box(&report)))
+        });
         c.bench_function(&format!("render-text/{}", d.name), |b| {
             b.iter(|| render_text(black_box(&report), false))
+        });
+        c.bench_function(&format!("render-page/{}", d.name), |b| {
+            b.iter(|| {
+                let downloads = Downloads {
+                    demo: None,
+                    sheet: d.text.to_string(),
+                };
+                VerdictPage::new(black_box(&report), &claim, downloads).render()
+            })
         });
     }
 }
