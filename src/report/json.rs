@@ -238,11 +238,17 @@ const WORD: usize = 8;
 fn any_to_escape(word: u64) -> bool {
     const ONES: u64 = u64::MAX / 0xff;
     const HIGHS: u64 = ONES * 0x80;
-    let has_zero = |v: u64| v.wrapping_sub(ONES) & !v & HIGHS != 0;
     let below_space = word.wrapping_sub(ONES * 0x20) & !word & HIGHS != 0;
-    below_space
-        || has_zero(word ^ (ONES * u64::from(b'"')))
-        || has_zero(word ^ (ONES * u64::from(b'\\')))
+    below_space || has_byte(word, b'"') || has_byte(word, b'\\')
+}
+
+/// Whether any of the eight bytes of `word` is `byte` (the "has a zero
+/// byte" test on `word ^ byte...byte`, exact about existence).
+pub(crate) fn has_byte(word: u64, byte: u8) -> bool {
+    const ONES: u64 = u64::MAX / 0xff;
+    const HIGHS: u64 = ONES * 0x80;
+    let v = word ^ (ONES * u64::from(byte));
+    v.wrapping_sub(ONES) & !v & HIGHS != 0
 }
 
 #[cfg(test)]

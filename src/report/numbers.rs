@@ -18,60 +18,86 @@ pub struct Fixed(pub f64, pub usize);
 impl fmt::Display for Fixed {
     fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
         let Fixed(v, places) = *self;
-        const POW10: [u64; 13] = [
-            1,
-            10,
-            100,
-            1_000,
-            10_000,
-            100_000,
-            1_000_000,
-            10_000_000,
-            100_000_000,
-            1_000_000_000,
-            10_000_000_000,
-            100_000_000_000,
-            1_000_000_000_000,
-        ];
-        let Some(&unit) = POW10.get(places) else {
-            return write!(f, "{v:.places$}");
-        };
-        // Powers of ten up to 1e22 are exact in f64; below 1e9 the product's
-        // rounding error stays under 1.2e-7.
-        let scaled = v * unit as f64;
-        if scaled.is_nan() || scaled.abs() >= 1e9 {
-            return write!(f, "{v:.places$}");
+        match fast_fixed(v, places, &mut [0; 16]) {
+            Some(digits) => f.write_str(digits),
+            None => write!(f, "{v:.places$}"),
         }
-        let rounded = scaled.round();
-        if ((scaled - rounded).abs() - 0.5).abs() < 1e-6 {
-            return write!(f, "{v:.places$}");
-        }
-        // The digits, last first, into a buffer on the stack: the
-        // formatting machinery per part cost as much as the rounding saved.
-        // n < 1e9 with at most 12 places: 13 digits, the point and a sign.
-        let mut n = rounded.abs() as u64;
-        let mut buf = [0u8; 16];
-        let mut at = buf.len();
-        let mut written = 0;
-        while n > 0 || written <= places {
-            if written == places && places > 0 {
-                at -= 1;
-                buf[at] = b'.';
-            }
-            at -= 1;
-            buf[at] = b'0' + (n % 10) as u8;
-            n /= 10;
-            written += 1;
-        }
-        // The standard formatter keeps the sign of a negative value that
-        // rounds to zero ("-0.0").
-        if v.is_sign_negative() {
-            at -= 1;
-            buf[at] = b'-';
-        }
-        // Only ASCII digits, '.' and '-' were written.
-        f.write_str(std::str::from_utf8(&buf[at..]).unwrap_or("?"))
     }
+}
+
+/// Appends [`Fixed`]`(v, places)` to `out` straight from the digit buffer,
+/// for the drawings, which write hundreds of coordinates a page.
+pub fn push_fixed(out: &mut String, v: f64, places: usize) {
+    match fast_fixed(v, places, &mut [0; 16]) {
+        Some(digits) => out.push_str(digits),
+        None => {
+            use fmt::Write as _;
+            let _ = write!(out, "{v:.places$}");
+        }
+    }
+}
+
+/// `v` to `places` decimals in `buf`, or `None` where the standard
+/// formatter must decide (see [`Fixed`]).
+fn fast_fixed(v: f64, places: usize, buf: &mut [u8; 16]) -> Option<&str> {
+    const POW10: [u64; 13] = [
+        1,
+        10,
+        100,
+        1_000,
+        10_000,
+        100_000,
+        1_000_000,
+        10_000_000,
+        100_000_000,
+        1_000_000_000,
+        10_000_000_000,
+        100_000_000_000,
+        1_000_000_000_000,
+    ];
+    let &unit = POW10.get(places)?;
+    // Powers of ten up to 1e22 are exact in f64; below 1e9 the product's
+    // rounding error stays under 1.2e-7.
+    let scaled = v * unit as f64;
+    if scaled.is_nan() || scaled.abs() >= 1e9 {
+        return None;
+    }
+    // Rounding by hand: `f64::round` is a call into libm on the baseline
+    // x86-64 target, and the tie test needs the fraction anyway.
+    let magnitude = scaled.abs();
+    let whole = magnitude as u64;
+    let fraction = magnitude - whole as f64;
+    if (fraction - 0.5).abs() < 1e-6 {
+        return None;
+    }
+    let mut n = whole + u64::from(fraction > 0.5);
+    // The digits, last first. n < 1e9 with at most 12 places: 13 digits,
+    // the point and a sign.
+    let mut at = buf.len();
+    let mut written = 0;
+    while n > 0 || written <= places {
+        if written == places && places > 0 {
+            at -= 1;
+            buf[at] = b'.';
+        }
+        at -= 1;
+        buf[at] = b'0' + (n % 10) as u8;
+        n /= 10;
+        written += 1;
+    }
+    // The standard formatter keeps the sign of a negative value that
+    // rounds to zero ("-0.0").
+    if v.is_sign_negative() {
+        at -= 1;
+        buf[at] = b'-';
+    }
+    let digits = &buf[at..];
+    debug_assert!(digits
+        .iter()
+        .all(|b| b.is_ascii_digit() || b".-".contains(b)));
+    // SAFETY: only ASCII digits, '.' and '-' were written, and ASCII is
+    // UTF-8. (Checking it again was a tenth of a verdict page's drawing.)
+    Some(unsafe { std::str::from_utf8_unchecked(digits) })
 }
 
 /// `v` to three significant figures, no exponent ("5.07", "1235",
@@ -145,11 +171,11 @@ mod tests {
         }
         for v in values {
             for places in [0, 1, 2, 3, 5, 12, 13] {
-                assert_eq!(
-                    Fixed(v, places).to_string(),
-                    format!("{v:.places$}"),
-                    "{v:?} to {places}"
-                );
+                let expected = format!("{v:.places$}");
+                assert_eq!(Fixed(v, places).to_string(), expected, "{v:?} to {places}");
+                let mut pushed = String::from("x");
+                push_fixed(&mut pushed, v, places);
+                assert_eq!(pushed, format!("x{expected}"), "{v:?} to {places}");
             }
         }
     }

@@ -7,7 +7,7 @@
 //! note saying why, never a broken picture. Only numbers and fixed words go
 //! into the SVG; any text is escaped all the same.
 
-use std::fmt::Write as _;
+use std::fmt::{self, Write as _};
 
 use crate::catalog::tiers::{self, Tier};
 use crate::claim::{Claim, Spin};
@@ -16,7 +16,7 @@ use crate::report::{Finding, Report};
 use crate::rules::control_authority;
 
 use super::layout;
-use crate::report::{Fixed, Sig3};
+use crate::report::{push_fixed, Fixed, Sig3};
 
 /// One drawing for the page, or the reason it is not drawn.
 #[derive(Debug, Clone)]
@@ -68,26 +68,52 @@ const DISC: &str = "#eef5f4";
 /// Escapes text for SVG (XML 1.0 section 2.4: `<` and `&` in text, quotes in attributes).
 pub fn esc(text: &str) -> String {
     let mut out = String::with_capacity(text.len());
-    for c in text.chars() {
-        match c {
-            '<' => out.push_str("&lt;"),
-            '>' => out.push_str("&gt;"),
-            '&' => out.push_str("&amp;"),
-            '"' => out.push_str("&quot;"),
-            '\'' => out.push_str("&#39;"),
-            c => out.push(c),
-        }
-    }
+    push_escaped(&mut out, text);
     out
 }
 
-/// A coordinate as `{:.1}` writes it (see [`Fixed`]).
+/// Appends `text` to `out` escaped as [`esc`] does, copying the runs
+/// between the characters it replaces whole.
+fn push_escaped(out: &mut String, text: &str) {
+    let mut start = 0;
+    for (i, b) in text.bytes().enumerate() {
+        let replacement = match b {
+            b'<' => "&lt;",
+            b'>' => "&gt;",
+            b'&' => "&amp;",
+            b'"' => "&quot;",
+            b'\'' => "&#39;",
+            _ => continue,
+        };
+        // The five are ASCII, so `i` is on a character boundary.
+        out.push_str(&text[start..i]);
+        out.push_str(replacement);
+        start = i + 1;
+    }
+    out.push_str(&text[start..]);
+}
+
+/// Writes into a String, escaping as [`esc`] does: text made by `format_args!`
+/// goes into a drawing without a String of its own.
+struct Escaping<'a>(&'a mut String);
+
+impl fmt::Write for Escaping<'_> {
+    fn write_str(&mut self, s: &str) -> fmt::Result {
+        push_escaped(self.0, s);
+        Ok(())
+    }
+}
+
+/// A coordinate in path data, as `{:.1}` writes it (see [`Fixed`]).
 fn d1(v: f64) -> Fixed {
     Fixed(v, 1)
 }
 
 /// A tiny SVG writer: shapes with presentation attributes only (no `style`),
 /// so the page's Content-Security-Policy holds and print keeps the colours.
+/// Coordinates and sizes are written to one decimal straight into the body
+/// ([`push_fixed`]): a page has hundreds, and the formatting machinery per
+/// number cost more than the drawing.
 struct Svg {
     width: f64,
     height: f64,
@@ -104,6 +130,28 @@ impl Svg {
         }
     }
 
+    /// `<tag` and its numeric attributes, to one decimal.
+    fn open(&mut self, tag: &str, numbers: &[(&str, f64)]) {
+        self.body.push('<');
+        self.body.push_str(tag);
+        for &(name, v) in numbers {
+            self.body.push(' ');
+            self.body.push_str(name);
+            self.body.push_str("=\"");
+            push_fixed(&mut self.body, v, 1);
+            self.body.push('"');
+        }
+    }
+
+    /// One attribute with a value of ours (a colour, a keyword), not escaped.
+    fn attr(&mut self, name: &str, value: &str) {
+        self.body.push(' ');
+        self.body.push_str(name);
+        self.body.push_str("=\"");
+        self.body.push_str(value);
+        self.body.push('"');
+    }
+
     fn line(
         &mut self,
         (x1, y1): (f64, f64),
@@ -112,19 +160,21 @@ impl Svg {
         w: f64,
         dash: bool,
     ) {
-        let dash = if dash {
-            " stroke-dasharray=\"5 4\""
-        } else {
-            ""
-        };
-        let _ = write!(
-            self.body,
-            "<line x1=\"{}\" y1=\"{}\" x2=\"{}\" y2=\"{}\" stroke=\"{stroke}\" stroke-width=\"{w}\"{dash}/>",
-            d1(x1),
-            d1(y1),
-            d1(x2),
-            d1(y2)
+        self.open(
+            "line",
+            &[
+                ("x1", x1),
+                ("y1", y1),
+                ("x2", x2),
+                ("y2", y2),
+                ("stroke-width", w),
+            ],
         );
+        self.attr("stroke", stroke);
+        if dash {
+            self.attr("stroke-dasharray", "5 4");
+        }
+        self.body.push_str("/>");
     }
 
     /// A line with a filled head at its end.
@@ -139,75 +189,99 @@ impl Svg {
         let base = (to.0 - ux * head, to.1 - uy * head);
         self.line(from, base, stroke, w, dash);
         let half = head * 0.45;
-        let _ = write!(
-            self.body,
-            "<polygon points=\"{},{} {},{} {},{}\" fill=\"{stroke}\"/>",
-            d1(to.0),
-            d1(to.1),
-            d1(base.0 - uy * half),
-            d1(base.1 + ux * half),
-            d1(base.0 + uy * half),
-            d1(base.1 - ux * half)
-        );
+        let points = [
+            to,
+            (base.0 - uy * half, base.1 + ux * half),
+            (base.0 + uy * half, base.1 - ux * half),
+        ];
+        self.body.push_str("<polygon points=\"");
+        for (i, (x, y)) in points.into_iter().enumerate() {
+            if i > 0 {
+                self.body.push(' ');
+            }
+            push_fixed(&mut self.body, x, 1);
+            self.body.push(',');
+            push_fixed(&mut self.body, y, 1);
+        }
+        self.body.push('"');
+        self.attr("fill", stroke);
+        self.body.push_str("/>");
     }
 
     fn rect(&mut self, x: f64, y: f64, w: f64, h: f64, fill: &str, stroke: &str) {
-        let _ = write!(
-            self.body,
-            "<rect x=\"{}\" y=\"{}\" width=\"{}\" height=\"{}\" fill=\"{fill}\" stroke=\"{stroke}\"/>",
-            d1(x),
-            d1(y),
-            d1(w.max(0.0)),
-            d1(h.max(0.0))
+        self.open(
+            "rect",
+            &[
+                ("x", x),
+                ("y", y),
+                ("width", w.max(0.0)),
+                ("height", h.max(0.0)),
+            ],
         );
+        self.attr("fill", fill);
+        self.attr("stroke", stroke);
+        self.body.push_str("/>");
     }
 
     fn circle(&mut self, (cx, cy): (f64, f64), r: f64, fill: &str, stroke: &str, dash: bool) {
-        let dash = if dash {
-            " stroke-dasharray=\"4 3\""
-        } else {
-            ""
-        };
-        let _ = write!(
-            self.body,
-            "<circle cx=\"{}\" cy=\"{}\" r=\"{}\" fill=\"{fill}\" stroke=\"{stroke}\" stroke-width=\"1.5\"{dash}/>",
-            d1(cx),
-            d1(cy),
-            d1(r)
-        );
+        self.open("circle", &[("cx", cx), ("cy", cy), ("r", r)]);
+        self.attr("fill", fill);
+        self.attr("stroke", stroke);
+        self.attr("stroke-width", "1.5");
+        if dash {
+            self.attr("stroke-dasharray", "4 3");
+        }
+        self.body.push_str("/>");
     }
 
     fn path(&mut self, d: &str, stroke: &str, w: f64) {
-        let _ = write!(
-            self.body,
-            "<path d=\"{d}\" fill=\"none\" stroke=\"{stroke}\" stroke-width=\"{w}\"/>"
-        );
+        self.open("path", &[("stroke-width", w)]);
+        self.attr("d", d);
+        self.attr("fill", "none");
+        self.attr("stroke", stroke);
+        self.body.push_str("/>");
     }
 
-    /// Text at a point; `anchor` is start, middle or end.
-    fn text(&mut self, (x, y): (f64, f64), anchor: &str, size: f64, fill: &str, text: &str) {
-        let _ = write!(
-            self.body,
-            "<text x=\"{}\" y=\"{}\" text-anchor=\"{anchor}\" font-size=\"{size}\" fill=\"{fill}\">{}</text>",
-            d1(x),
-            d1(y),
-            esc(text)
-        );
+    /// Text at a point; `anchor` is start, middle or end. The text is
+    /// escaped as it is written, so `format_args!` needs no String.
+    fn text(
+        &mut self,
+        (x, y): (f64, f64),
+        anchor: &str,
+        size: f64,
+        fill: &str,
+        text: impl fmt::Display,
+    ) {
+        self.open("text", &[("x", x), ("y", y), ("font-size", size)]);
+        self.attr("text-anchor", anchor);
+        self.attr("fill", fill);
+        self.body.push('>');
+        let _ = write!(Escaping(&mut self.body), "{text}");
+        self.body.push_str("</text>");
     }
 
     fn finish(self, id: &str, title: &str, desc: &str) -> String {
-        format!(
+        let mut out = String::with_capacity(self.body.len() + 512 + title.len() + desc.len());
+        let _ = write!(
+            out,
             "<svg xmlns=\"http://www.w3.org/2000/svg\" class=\"drawing\" viewBox=\"0 0 {w} {h}\" \
              width=\"{w}\" height=\"{h}\" role=\"img\" aria-labelledby=\"{id}-t {id}-d\" \
-             font-family=\"system-ui, sans-serif\">\
-             <title id=\"{id}-t\">{title}</title><desc id=\"{id}-d\">{desc}</desc>\
-             <rect width=\"{w}\" height=\"{h}\" fill=\"{PAPER}\"/>{body}</svg>",
-            w = self.width,
-            h = self.height,
-            title = esc(title),
-            desc = esc(desc),
-            body = self.body,
-        )
+             font-family=\"system-ui, sans-serif\"><title id=\"{id}-t\">",
+            w = Fixed(self.width, 0),
+            h = Fixed(self.height, 0),
+        );
+        push_escaped(&mut out, title);
+        let _ = write!(out, "</title><desc id=\"{id}-d\">");
+        push_escaped(&mut out, desc);
+        let _ = write!(
+            out,
+            "</desc><rect width=\"{w}\" height=\"{h}\" fill=\"{PAPER}\"/>",
+            w = Fixed(self.width, 0),
+            h = Fixed(self.height, 0),
+        );
+        out.push_str(&self.body);
+        out.push_str("</svg>");
+        out
     }
 }
 
@@ -337,7 +411,7 @@ pub fn free_body(report: &Report, claim: &Claim) -> Drawing {
         "end",
         12.0,
         INK,
-        &format!("weight {} N", Sig3(f.weight)),
+        format_args!("weight {} N", Sig3(f.weight)),
     );
     if f.unbalanced > 0.0 {
         svg.line(vertical_tip, thrust_tip, MUTED, 1.0, true);
@@ -348,7 +422,7 @@ pub fn free_body(report: &Report, claim: &Claim) -> Drawing {
             "end",
             11.0,
             MUTED,
-            &format!("upward part {} N", Sig3(f.weight)),
+            format_args!("upward part {} N", Sig3(f.weight)),
         );
         svg.arrow(centre, horizontal_tip, FORCE, 2.5, true);
         svg.text(
@@ -356,7 +430,7 @@ pub fn free_body(report: &Report, claim: &Claim) -> Drawing {
             "start",
             12.0,
             FORCE,
-            &format!("unbalanced {} N", Sig3(f.unbalanced)),
+            format_args!("unbalanced {} N", Sig3(f.unbalanced)),
         );
         // The tilt angle, between the vertical and the thrust.
         let r = 34.0;
@@ -381,7 +455,7 @@ pub fn free_body(report: &Report, claim: &Claim) -> Drawing {
             "start",
             11.0,
             INK,
-            &format!("tilt {} deg", Sig3(f.tilt_deg)),
+            format_args!("tilt {} deg", Sig3(f.tilt_deg)),
         );
     }
     svg.arrow(centre, thrust_tip, THRUST, 3.0, false);
@@ -390,7 +464,7 @@ pub fn free_body(report: &Report, claim: &Claim) -> Drawing {
         "start",
         12.0,
         THRUST,
-        &format!("thrust {} N", Sig3(f.thrust)),
+        format_args!("thrust {} N", Sig3(f.thrust)),
     );
 
     // Scale bar, bottom right.
@@ -402,7 +476,7 @@ pub fn free_body(report: &Report, claim: &Claim) -> Drawing {
         "end",
         11.0,
         INK,
-        &format!("{} N", Sig3(step)),
+        format_args!("{} N", Sig3(step)),
     );
 
     let caption = if f.unbalanced > 0.0 {
@@ -439,7 +513,7 @@ fn axis(svg: &mut Svg, max: f64, y: f64, unit: &str) {
     while v <= max * 1.0001 {
         let x = BAR_X + v / max * BAR_W;
         svg.line((x, y), (x, y + 4.0), MUTED, 1.0, false);
-        svg.text((x, y + 15.0), "middle", 10.0, MUTED, &Sig3(v).to_string());
+        svg.text((x, y + 15.0), "middle", 10.0, MUTED, Sig3(v));
         v += step;
     }
     svg.line((BAR_X, y), (BAR_X + BAR_W, y), MUTED, 1.0, false);
@@ -500,7 +574,7 @@ pub fn thrust_bar(report: &Report) -> Drawing {
         "middle",
         11.0,
         FORCE,
-        &format!("weight {} N", Sig3(weight)),
+        format_args!("weight {} N", Sig3(weight)),
     );
     axis(&mut svg, max, bottom, "newtons");
     svg.text(
@@ -508,7 +582,7 @@ pub fn thrust_bar(report: &Report) -> Drawing {
         "start",
         10.5,
         INK,
-        &format!(
+        format_args!(
             "bar: all rotors at full power; solid mark: {:.0} % of it, the most to hover on",
             hover_share * 100.0
         ),

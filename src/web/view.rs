@@ -1,16 +1,18 @@
 //! View models: everything a template shows, already in words and rounded
 //! numbers, so templates hold no logic beyond loops and conditions. Askama
-//! escapes every field for HTML; only the server-built SVG in
-//! [`super::figures`] and the fixed icons below are inserted unescaped.
+//! escapes every field for HTML, the report's own text through [`Text`];
+//! only the server-built SVG in [`super::figures`] and the fixed icons below
+//! are inserted unescaped.
 
-use std::borrow::Cow;
+use std::fmt;
 
 use askama::Template;
 use axum::http::StatusCode;
 
 use crate::catalog::tiers::{self, Tier};
 use crate::claim::Claim;
-use crate::report::{sig3, Figure, Finding, Report, Verdict};
+use crate::report::json::has_byte;
+use crate::report::{sig3, Figure, Finding, Report, Sig3, Verdict};
 use crate::rules;
 use crate::sources::{self, Source};
 
@@ -18,14 +20,89 @@ use super::figures::{self, Drawing};
 use super::form::FormView;
 use super::LoadedDemo;
 
-/// A figure's value: counts as whole numbers, everything else by [`number`].
-fn figure_value(f: &Figure) -> String {
-    if f.unit == "1" && f.value.is_finite() && f.value.fract() == 0.0 && f.value.abs() < 1e9 {
-        format!("{}", f.value as i64)
-    } else {
-        sig3(f.value)
+/// Text of the report on a page, escaped for HTML as it is written, with
+/// the same entities as askama's escaper (`&#60;` and so on), but testing
+/// eight bytes at a time: askama looks at each byte, and escaping the
+/// report's text that way was a fifth of rendering a verdict page
+/// (callgrind, `render-page`).
+#[derive(Debug, Clone, Copy)]
+pub struct Text<'a>(pub &'a str);
+
+impl Text<'_> {
+    pub fn is_empty(&self) -> bool {
+        self.0.is_empty()
     }
 }
+
+impl fmt::Display for Text<'_> {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        let text = self.0;
+        let bytes = text.as_bytes();
+        let mut start = 0;
+        let mut i = 0;
+        while i < bytes.len() {
+            if let Some(word) = bytes.get(i..i + 8) {
+                let word = u64::from_le_bytes(word.try_into().unwrap_or([0; 8]));
+                if !b"\"&'<>".iter().any(|&c| has_byte(word, c)) {
+                    i += 8;
+                    continue;
+                }
+            }
+            let entity = match bytes[i] {
+                b'"' => "&#34;",
+                b'&' => "&#38;",
+                b'\'' => "&#39;",
+                b'<' => "&#60;",
+                b'>' => "&#62;",
+                _ => {
+                    i += 1;
+                    continue;
+                }
+            };
+            // The five are ASCII, so `i` is on a character boundary.
+            f.write_str(&text[start..i])?;
+            f.write_str(entity)?;
+            i += 1;
+            start = i;
+        }
+        f.write_str(&text[start..])
+    }
+}
+
+// Its Display escapes, so askama must not escape it again.
+impl askama::filters::HtmlSafe for Text<'_> {}
+
+/// A value in a finding's table: counts as whole numbers, everything else
+/// to three significant figures ([`Sig3`]), "-" where a tier has none.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub enum Cell {
+    Missing,
+    Count(i64),
+    Number(f64),
+}
+
+impl Cell {
+    fn of(f: &Figure) -> Cell {
+        if f.unit == "1" && f.value.is_finite() && f.value.fract() == 0.0 && f.value.abs() < 1e9 {
+            Cell::Count(f.value as i64)
+        } else {
+            Cell::Number(f.value)
+        }
+    }
+}
+
+impl fmt::Display for Cell {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        match *self {
+            Cell::Missing => f.write_str("-"),
+            Cell::Count(n) => write!(f, "{n}"),
+            Cell::Number(v) => Sig3(v).fmt(f),
+        }
+    }
+}
+
+// Digits, '.', '-', "n/a" and "unbounded" only: nothing to escape.
+impl askama::filters::HtmlSafe for Cell {}
 
 /// A unit as the table prints it; a pure number is marked as a ratio.
 fn unit_label(unit: &'static str) -> &'static str {
@@ -90,7 +167,7 @@ fn icon(v: Verdict) -> &'static str {
 }
 
 /// The title of a rule by id, from the registry.
-fn rule_title(id: &str) -> &str {
+fn rule_title(id: &'static str) -> &'static str {
     rules::REGISTRY
         .iter()
         .find(|r| r.id == id)
@@ -101,18 +178,18 @@ fn rule_title(id: &str) -> &str {
 /// One row of a finding's table: a quantity across the tiers, or one value
 /// for a quantity that does not depend on them.
 #[derive(Debug, Clone)]
-pub struct FigureRow {
+pub struct FigureRow<'a> {
     pub key: &'static str,
-    pub label: Cow<'static, str>,
+    pub label: Text<'a>,
     pub unit: &'static str,
-    /// Values at physical limit, best practice, typical; "-" where missing.
-    pub by_tier: Vec<String>,
+    /// Values at physical limit, best practice, typical.
+    pub by_tier: [Cell; 3],
     /// The value of a tier-independent figure.
-    pub fixed: Option<String>,
+    pub fixed: Option<Cell>,
 }
 
 /// Groups a finding's figures by key, keeping the order the rule gave.
-pub fn figure_rows(figures: &[Figure]) -> Vec<FigureRow> {
+pub fn figure_rows(figures: &[Figure]) -> Vec<FigureRow<'_>> {
     let mut rows: Vec<FigureRow> = Vec::new();
     for f in figures {
         let at = rows.iter().position(|r| r.key == f.key);
@@ -121,21 +198,17 @@ pub fn figure_rows(figures: &[Figure]) -> Vec<FigureRow> {
             None => {
                 rows.push(FigureRow {
                     key: f.key,
-                    label: f.label.clone(),
+                    label: Text(&f.label),
                     unit: unit_label(f.unit),
-                    by_tier: vec!["-".to_string(); Tier::ALL.len()],
+                    by_tier: [Cell::Missing; 3],
                     fixed: None,
                 });
                 rows.last_mut().expect("just pushed")
             }
         };
         match f.tier {
-            Some(t) => {
-                if let Some(i) = Tier::ALL.iter().position(|x| *x == t) {
-                    row.by_tier[i] = figure_value(f);
-                }
-            }
-            None => row.fixed = Some(figure_value(f)),
+            Some(t) => row.by_tier[t as usize] = Cell::of(f),
+            None => row.fixed = Some(Cell::of(f)),
         }
     }
     rows
@@ -148,27 +221,27 @@ pub struct SourceLink {
 }
 
 #[derive(Debug, Clone)]
-pub struct FindingView {
+pub struct FindingView<'a> {
     pub rule: &'static str,
-    pub rule_title: String,
+    pub rule_title: &'static str,
     pub verdict: VerdictView,
-    pub headline: String,
-    pub rows: Vec<FigureRow>,
-    pub would_take: String,
-    pub assumptions: Vec<String>,
+    pub headline: Text<'a>,
+    pub rows: Vec<FigureRow<'a>>,
+    pub would_take: Text<'a>,
+    pub assumptions: Vec<Text<'a>>,
     pub sources: Vec<SourceLink>,
 }
 
-impl FindingView {
-    pub fn of(f: &Finding) -> FindingView {
+impl<'a> FindingView<'a> {
+    pub fn of(f: &'a Finding) -> FindingView<'a> {
         FindingView {
             rule: f.rule,
-            rule_title: rule_title(f.rule).to_string(),
+            rule_title: rule_title(f.rule),
             verdict: VerdictView::of(f.verdict),
-            headline: f.headline.clone(),
+            headline: Text(&f.headline),
             rows: figure_rows(&f.figures),
-            would_take: f.would_take.clone(),
-            assumptions: f.assumptions.clone(),
+            would_take: Text(&f.would_take),
+            assumptions: f.assumptions.iter().map(|a| Text(a)).collect(),
             sources: f
                 .sources
                 .iter()
@@ -188,6 +261,13 @@ impl FindingView {
 pub struct Downloads {
     pub demo: Option<&'static str>,
     pub sheet: String,
+}
+
+impl Downloads {
+    /// The sheet for the page's hidden fields.
+    pub fn sheet_text(&self) -> Text<'_> {
+        Text(&self.sheet)
+    }
 }
 
 /// The one-paragraph summary under the overall verdict.
@@ -227,30 +307,30 @@ pub fn summary(report: &Report) -> String {
 
 #[derive(Template)]
 #[template(path = "verdict.html")]
-pub struct VerdictPage {
-    pub title: String,
-    pub source: Option<String>,
+pub struct VerdictPage<'a> {
+    pub title: Text<'a>,
+    pub source: Option<Text<'a>>,
     pub verdict: VerdictView,
     pub summary: String,
-    pub findings: Vec<FindingView>,
+    pub findings: Vec<FindingView<'a>>,
     pub drawings: Vec<Drawing>,
-    pub tiers: Vec<&'static str>,
-    pub cautions: Vec<&'static str>,
+    pub tiers: [&'static str; 3],
+    pub cautions: &'a [&'static str],
     pub engine: &'static str,
     pub downloads: Downloads,
 }
 
-impl VerdictPage {
-    pub fn new(report: &Report, claim: &Claim, downloads: Downloads) -> VerdictPage {
+impl<'a> VerdictPage<'a> {
+    pub fn new(report: &'a Report, claim: &'a Claim, downloads: Downloads) -> VerdictPage<'a> {
         VerdictPage {
-            title: report.title.clone(),
-            source: claim.source.clone(),
+            title: Text(&report.title),
+            source: claim.source.as_deref().map(Text),
             verdict: VerdictView::of(report.verdict),
             summary: summary(report),
             findings: report.findings.iter().map(FindingView::of).collect(),
             drawings: figures::all(report, claim),
-            tiers: Tier::ALL.iter().map(|t| t.label()).collect(),
-            cautions: report.cautions.clone(),
+            tiers: Tier::ALL.map(|t| t.label()),
+            cautions: &report.cautions,
             engine: report.engine,
             downloads,
         }
@@ -388,15 +468,36 @@ mod tests {
             value,
             unit,
         };
-        let rows = figure_rows(&[
+        let figures = [
             fig("weight", None, 3.04, "N"),
             fig("rotors_needed", Some(Tier::Typical), 15.0, "1"),
             fig("rotors_needed", Some(Tier::PhysicalLimit), 4.0, "1"),
-        ]);
+        ];
+        let rows = figure_rows(&figures);
         assert_eq!(rows.len(), 2);
-        assert_eq!(rows[0].fixed.as_deref(), Some("3.04"));
-        assert_eq!(rows[1].by_tier, ["4", "-", "15"]);
+        assert_eq!(
+            rows[0].fixed.map(|c| c.to_string()).as_deref(),
+            Some("3.04")
+        );
+        assert_eq!(rows[1].by_tier.map(|c| c.to_string()), ["4", "-", "15"]);
         assert_eq!(rows[1].unit, "no unit");
+    }
+
+    #[test]
+    fn text_is_escaped_as_askama_escapes_it() {
+        // askama's own HTML escaper is the reference: the same entities for
+        // the same five characters, at every offset within a word.
+        use askama::filters::Escaper;
+        for pad in 0..=8 {
+            for c in ['"', '&', '\'', '<', '>', 'a', 'é', '→'] {
+                let text = format!("{}{c}{c}{}", "x".repeat(pad), "y".repeat(9 - pad));
+                let mut expected = String::new();
+                askama::filters::Html
+                    .write_escaped_str(&mut expected, &text)
+                    .unwrap();
+                assert_eq!(Text(&text).to_string(), expected, "{text:?}");
+            }
+        }
     }
 
     #[test]
