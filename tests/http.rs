@@ -420,6 +420,22 @@ async fn unknown_paths_get_a_real_404_page_and_json_under_the_api() {
 }
 
 #[tokio::test]
+async fn a_method_an_address_does_not_take_is_405_with_its_allow_and_a_body() {
+    // RFC 9110 section 15.5.6: a 405 carries Allow.
+    let api = get("/api/v1/check").await;
+    assert_eq!(api.status, StatusCode::METHOD_NOT_ALLOWED);
+    assert!(api.headers[header::ALLOW]
+        .to_str()
+        .unwrap()
+        .contains("POST"));
+    assert!(api.json()["errors"][0]["message"].is_string());
+    let page = post("/methods", "text/plain", "x").await;
+    assert_eq!(page.status, StatusCode::METHOD_NOT_ALLOWED);
+    assert!(page.headers.contains_key(header::ALLOW));
+    assert!(page.body.contains("<h1>405"), "{}", page.body);
+}
+
+#[tokio::test]
 async fn health_and_static_files_answer_with_cache_headers() {
     let h = get("/healthz").await;
     assert_eq!(h.status, StatusCode::OK);

@@ -34,6 +34,8 @@ pub enum Error {
     /// A body over [`super::BODY_LIMIT`].
     TooLarge,
     NotFound,
+    /// A method the address does not take.
+    MethodNotAllowed,
     /// Our fault: logged, never shown.
     Internal(String),
 }
@@ -62,6 +64,7 @@ impl Error {
             Error::UnsupportedMediaType(_) => StatusCode::UNSUPPORTED_MEDIA_TYPE,
             Error::TooLarge => StatusCode::PAYLOAD_TOO_LARGE,
             Error::NotFound => StatusCode::NOT_FOUND,
+            Error::MethodNotAllowed => StatusCode::METHOD_NOT_ALLOWED,
             Error::Internal(_) => StatusCode::INTERNAL_SERVER_ERROR,
         }
     }
@@ -83,6 +86,10 @@ impl Error {
                 super::BODY_LIMIT / 1024
             ),
             Error::NotFound => "There is no page at this address.".to_string(),
+            Error::MethodNotAllowed => {
+                "This address does not take that method; the Allow header lists the ones it does."
+                    .to_string()
+            }
             Error::Internal(_) => {
                 "Something went wrong on our side. The error has been logged; please try again."
                     .to_string()
@@ -201,26 +208,34 @@ pub fn answers_json(path: &str) -> bool {
     path.starts_with("/api/") || path.starts_with("/download/")
 }
 
-/// `RequestBodyLimitLayer` refuses a body whose declared length is over the
-/// limit before any handler runs, with a plain-text answer of its own. This
-/// gives that refusal the body of every other 413: the JSON errors body under
-/// `/api/` and for the downloads (as the OpenAPI document says), the error
-/// page elsewhere.
-pub async fn restate_early_refusal(request: Request, next: Next) -> Response {
+/// Two refusals are made outside our handlers, with bodies of their own:
+/// `RequestBodyLimitLayer` answers a body whose declared length is over the
+/// limit with plain text, and the router answers a method a route does not
+/// take (405) with nothing. This gives them the body of every other error:
+/// the JSON errors body under `/api/` and for the downloads (as the OpenAPI
+/// document says), the error page elsewhere. The 405 keeps its `Allow`.
+pub async fn restate_bare_refusals(request: Request, next: Next) -> Response {
     let json = answers_json(request.uri().path());
     let response = next.run(request).await;
+    let status = response.status();
     let plain_text = response
         .headers()
         .get(header::CONTENT_TYPE)
-        .is_some_and(|v| v.as_bytes().starts_with(b"text/plain"));
-    if response.status() != StatusCode::PAYLOAD_TOO_LARGE || !plain_text {
-        return response;
-    }
-    if json {
-        ApiError(Error::TooLarge).into_response()
+        .is_none_or(|v| v.as_bytes().starts_with(b"text/plain"));
+    let error = match status {
+        StatusCode::PAYLOAD_TOO_LARGE if plain_text => Error::TooLarge,
+        StatusCode::METHOD_NOT_ALLOWED if plain_text => Error::MethodNotAllowed,
+        _ => return response,
+    };
+    let mut restated = if json {
+        ApiError(error).into_response()
     } else {
-        Error::TooLarge.into_response()
+        error.into_response()
+    };
+    if let Some(allow) = response.headers().get(header::ALLOW) {
+        restated.headers_mut().insert(header::ALLOW, allow.clone());
     }
+    restated
 }
 
 /// The answer to a handler that panicked: logged, and a plain 500 that says
