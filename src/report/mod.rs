@@ -6,6 +6,7 @@
 
 pub mod json;
 pub mod numbers;
+pub mod scan;
 mod text;
 
 use std::borrow::Cow;

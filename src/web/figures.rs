@@ -16,6 +16,7 @@ use crate::report::{Finding, Report};
 use crate::rules::control_authority;
 
 use super::layout;
+use crate::report::scan::Escapes;
 use crate::report::{push_fixed, Fixed, Sig3};
 
 /// One drawing for the page, or the reason it is not drawn.
@@ -73,24 +74,25 @@ pub fn esc(text: &str) -> String {
 }
 
 /// Appends `text` to `out` escaped as [`esc`] does, copying the runs
-/// between the characters it replaces whole.
+/// between the characters it replaces whole ([`Escapes::clean_run`]).
 fn push_escaped(out: &mut String, text: &str) {
-    let mut start = 0;
-    for (i, b) in text.bytes().enumerate() {
-        let replacement = match b {
+    let mut rest = text;
+    loop {
+        let run = Escapes::Html.clean_run(rest.as_bytes());
+        out.push_str(&rest[..run]);
+        let Some(&b) = rest.as_bytes().get(run) else {
+            return;
+        };
+        out.push_str(match b {
             b'<' => "&lt;",
             b'>' => "&gt;",
             b'&' => "&amp;",
             b'"' => "&quot;",
-            b'\'' => "&#39;",
-            _ => continue,
-        };
-        // The five are ASCII, so `i` is on a character boundary.
-        out.push_str(&text[start..i]);
-        out.push_str(replacement);
-        start = i + 1;
+            _ => "&#39;",
+        });
+        // The five are ASCII, so the next byte starts a character.
+        rest = &rest[run + 1..];
     }
-    out.push_str(&text[start..]);
 }
 
 /// Writes into a String, escaping as [`esc`] does: text made by `format_args!`
