@@ -221,18 +221,24 @@ impl<'a> Table<'a> {
         Table::new(field, node, errors)
     }
 
-    /// Reports every key that no reader took.
+    /// Reports every key that no reader took, in sorted order.
     fn finish(self, errors: &mut Errors) {
-        for (key, _) in self.entries {
-            if !self.taken.contains(&key.as_str()) {
-                let mut known: Vec<&str> = self.taken.clone();
-                known.sort_unstable();
-                known.dedup();
-                errors.push(
-                    &self.field(key),
-                    format!("unknown key; this table takes {}", known.join(", ")),
-                );
-            }
+        let mut unknown: Vec<&str> = self
+            .entries
+            .iter()
+            .map(|(key, _)| key.as_str())
+            .filter(|key| !self.taken.contains(key))
+            .collect();
+        if unknown.is_empty() {
+            return;
+        }
+        unknown.sort_unstable();
+        let mut known = self.taken.clone();
+        known.sort_unstable();
+        known.dedup();
+        let message = format!("unknown key; this table takes {}", known.join(", "));
+        for key in unknown {
+            errors.push(&self.field(key), message.clone());
         }
     }
 }
@@ -1001,5 +1007,24 @@ fn read_conditions(mut t: Table<'_>, errors: &mut Errors) -> Conditions {
         altitude: Length::new::<meter>(altitude),
         temperature: temperature.map(ThermodynamicTemperature::new::<kelvin>),
         wind: Velocity::new::<meter_per_second>(wind),
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn unknown_keys_are_reported_in_sorted_order() {
+        let text = r#"{"title": "t", "zeta": 1, "alpha": 2, "craft": {"zz": 1, "aa": 2}}"#;
+        let Err(Error::Invalid(errors)) = parse(text, Format::Json) else {
+            panic!("the sheet should be refused");
+        };
+        let unknown: Vec<&str> = errors
+            .iter()
+            .filter(|e| e.message.starts_with("unknown key"))
+            .map(|e| e.field.as_str())
+            .collect();
+        assert_eq!(unknown, ["craft.aa", "craft.zz", "alpha", "zeta"]);
     }
 }
