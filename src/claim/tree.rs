@@ -3,8 +3,11 @@
 
 use std::collections::HashSet;
 use std::fmt;
+use std::ops::Range;
 
 use serde::de::{self, Deserialize, Deserializer, MapAccess, SeqAccess, Visitor};
+use toml::de::{DeTable, DeValue};
+use toml::Spanned;
 
 use super::{Error, Format};
 
@@ -39,20 +42,20 @@ impl Node {
 
 /// Parses TOML text into a tree; a syntax error carries line and column.
 pub fn from_toml(text: &str) -> Result<Node, Error> {
-    match text.parse::<toml::Table>() {
-        Ok(table) => Ok(toml_table(table)),
-        Err(e) => {
-            let (line, column) = e
-                .span()
-                .map(|span| line_column(text, span.start))
-                .unwrap_or((1, 1));
-            Err(Error::Syntax {
-                format: Format::Toml,
-                line,
-                column,
-                message: e.message().trim().to_string(),
-            })
-        }
+    let table = DeTable::parse(text).map_err(|e| toml_error(text, e.message(), e.span()))?;
+    toml_table(text, table.into_inner())
+}
+
+/// A TOML syntax error at a byte span of the text.
+fn toml_error(text: &str, message: &str, span: Option<Range<usize>>) -> Error {
+    let (line, column) = span
+        .map(|span| line_column(text, span.start))
+        .unwrap_or((1, 1));
+    Error::Syntax {
+        format: Format::Toml,
+        line,
+        column,
+        message: message.trim().to_string(),
     }
 }
 
@@ -161,20 +164,45 @@ impl<'de> Visitor<'de> for NodeVisitor {
 /// Keys an object may hold before repeats are looked up in a set.
 const SCAN_KEYS: usize = 16;
 
-fn toml_table(table: toml::Table) -> Node {
-    Node::Table(table.into_iter().map(|(k, v)| (k, toml_value(v))).collect())
+/// A TOML table as a tree node; `text` places an error in a number.
+fn toml_table(text: &str, table: DeTable<'_>) -> Result<Node, Error> {
+    let entries = table
+        .into_iter()
+        .map(|(k, v)| Ok((k.into_inner().into_owned(), toml_value(text, v)?)))
+        .collect::<Result<_, Error>>()?;
+    Ok(Node::Table(entries))
 }
 
-fn toml_value(value: toml::Value) -> Node {
-    match value {
-        toml::Value::String(s) => Node::Str(s),
-        toml::Value::Integer(i) => Node::Int(i),
-        toml::Value::Float(f) => Node::Float(f),
-        toml::Value::Boolean(b) => Node::Bool(b),
-        toml::Value::Array(items) => Node::Array(items.into_iter().map(toml_value).collect()),
-        toml::Value::Table(t) => toml_table(t),
-        toml::Value::Datetime(_) => Node::Other("a date"),
-    }
+/// One TOML value as a tree node.
+fn toml_value(text: &str, value: Spanned<DeValue<'_>>) -> Result<Node, Error> {
+    let span = value.span();
+    Ok(match value.into_inner() {
+        DeValue::String(s) => Node::Str(s.into_owned()),
+        DeValue::Integer(i) => match i64::from_str_radix(i.as_str(), i.radix()) {
+            Ok(n) => Node::Int(n),
+            Err(e) => return Err(toml_error(text, &e.to_string(), Some(span))),
+        },
+        // A literal too large for f64 is refused; only `inf` itself is infinite.
+        DeValue::Float(f) => match f.as_str().parse::<f64>() {
+            Ok(x) if !x.is_infinite() || f.as_str().contains("inf") => Node::Float(x),
+            _ => {
+                return Err(toml_error(
+                    text,
+                    "invalid floating-point number",
+                    Some(span),
+                ))
+            }
+        },
+        DeValue::Boolean(b) => Node::Bool(b),
+        DeValue::Array(items) => Node::Array(
+            items
+                .into_iter()
+                .map(|v| toml_value(text, v))
+                .collect::<Result<_, Error>>()?,
+        ),
+        DeValue::Table(t) => toml_table(text, t)?,
+        DeValue::Datetime(_) => Node::Other("a date"),
+    })
 }
 
 /// One-based line and column (in characters) of a byte offset.
