@@ -29,7 +29,7 @@ const MAX_TEXT: usize = 500;
 struct Errors(Vec<FieldError>);
 
 impl Errors {
-    fn push(&mut self, field: &str, message: impl Into<String>) {
+    fn push(&mut self, field: impl fmt::Display, message: impl Into<String>) {
         self.0.push(FieldError {
             field: field.to_string(),
             message: message.into(),
@@ -37,17 +37,36 @@ impl Errors {
     }
 }
 
+/// Where a value sits in the sheet; spelled out (`craft.parts[2].mass`) only
+/// when an error names it.
+#[derive(Clone, Copy)]
+enum Path<'p> {
+    Root,
+    Key(&'p Path<'p>, &'p str),
+    Item(&'p Path<'p>, usize),
+}
+
+impl fmt::Display for Path<'_> {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        match self {
+            Path::Root => Ok(()),
+            Path::Key(Path::Root, key) => f.write_str(key),
+            Path::Key(table, key) => write!(f, "{table}.{key}"),
+            Path::Item(list, i) => write!(f, "{list}[{i}]"),
+        }
+    }
+}
+
 /// A table being read: remembers which keys were taken, so that the rest
 /// can be reported as unknown.
-struct Table<'a> {
-    path: String,
+struct Table<'a, 'p> {
+    path: Path<'p>,
     entries: &'a [(String, Node)],
     taken: Vec<&'static str>,
 }
 
-impl<'a> Table<'a> {
-    fn new(path: impl Into<String>, node: &'a Node, errors: &mut Errors) -> Option<Table<'a>> {
-        let path = path.into();
+impl<'a, 'p> Table<'a, 'p> {
+    fn new(path: Path<'p>, node: &'a Node, errors: &mut Errors) -> Option<Table<'a, 'p>> {
         match node {
             Node::Table(entries) => Some(Table {
                 path,
@@ -55,18 +74,15 @@ impl<'a> Table<'a> {
                 taken: Vec::new(),
             }),
             other => {
-                errors.push(&path, format!("expected a table, got {}", other.kind()));
+                errors.push(path, format!("expected a table, got {}", other.kind()));
                 None
             }
         }
     }
 
-    fn field(&self, key: &str) -> String {
-        if self.path.is_empty() {
-            key.to_string()
-        } else {
-            format!("{}.{}", self.path, key)
-        }
+    /// The path of one of this table's keys.
+    fn field<'k>(&'k self, key: &'k str) -> Path<'k> {
+        Path::Key(&self.path, key)
     }
 
     fn get(&mut self, key: &'static str) -> Option<&'a Node> {
@@ -78,7 +94,7 @@ impl<'a> Table<'a> {
         match self.get(key)? {
             Node::Str(s) if s.chars().count() > MAX_TEXT => {
                 errors.push(
-                    &self.field(key),
+                    self.field(key),
                     format!("is longer than {MAX_TEXT} characters"),
                 );
                 None
@@ -86,7 +102,7 @@ impl<'a> Table<'a> {
             Node::Str(s) => Some(s.as_str()),
             other => {
                 errors.push(
-                    &self.field(key),
+                    self.field(key),
                     format!("expected a string, got {}", other.kind()),
                 );
                 None
@@ -99,7 +115,7 @@ impl<'a> Table<'a> {
             Node::Bool(b) => Some(*b),
             other => {
                 errors.push(
-                    &self.field(key),
+                    self.field(key),
                     format!("expected true or false, got {}", other.kind()),
                 );
                 None
@@ -109,23 +125,22 @@ impl<'a> Table<'a> {
 
     /// A whole number in `lo..=hi`.
     fn count(&mut self, key: &'static str, lo: i64, hi: i64, errors: &mut Errors) -> Option<u32> {
-        let field = self.field(key);
         match self.get(key)? {
             Node::Int(n) if (lo..=hi).contains(n) => u32::try_from(*n).ok(),
             Node::Int(n) => {
                 errors.push(
-                    &field,
+                    self.field(key),
                     format!("must be a whole number from {lo} to {hi}, got {n}"),
                 );
                 None
             }
             Node::Float(f) => {
-                errors.push(&field, format!("must be a whole number, got {f}"));
+                errors.push(self.field(key), format!("must be a whole number, got {f}"));
                 None
             }
             other => {
                 errors.push(
-                    &field,
+                    self.field(key),
                     format!("expected a whole number, got {}", other.kind()),
                 );
                 None
@@ -141,12 +156,11 @@ impl<'a> Table<'a> {
         range: Range,
         errors: &mut Errors,
     ) -> Option<units::Reading> {
-        let field = self.field(key);
         let text = match self.get(key)? {
             Node::Str(s) => s,
             Node::Int(_) | Node::Float(_) => {
                 errors.push(
-                    &field,
+                    self.field(key),
                     format!(
                         "write the unit too: {} such as {}",
                         dim.noun(),
@@ -157,7 +171,7 @@ impl<'a> Table<'a> {
             }
             other => {
                 errors.push(
-                    &field,
+                    self.field(key),
                     format!(
                         "expected {} such as {}, got {}",
                         dim.noun(),
@@ -172,12 +186,12 @@ impl<'a> Table<'a> {
             Ok(reading) => match range.check(reading.si, text) {
                 Ok(()) => Some(reading),
                 Err(message) => {
-                    errors.push(&field, message);
+                    errors.push(self.field(key), message);
                     None
                 }
             },
             Err(message) => {
-                errors.push(&field, message);
+                errors.push(self.field(key), message);
                 None
             }
         }
@@ -200,14 +214,13 @@ impl<'a> Table<'a> {
         options: &[(&'static str, T)],
         errors: &mut Errors,
     ) -> Option<T> {
-        let field = self.field(key);
         let text = self.text(key, errors)?;
         match options.iter().find(|(id, _)| *id == text) {
             Some((_, v)) => Some(*v),
             None => {
                 let names: Vec<&str> = options.iter().map(|(id, _)| *id).collect();
                 errors.push(
-                    &field,
+                    self.field(key),
                     format!("'{text}' is not one of: {}", names.join(", ")),
                 );
                 None
@@ -215,24 +228,29 @@ impl<'a> Table<'a> {
         }
     }
 
-    fn subtable(&mut self, key: &'static str, errors: &mut Errors) -> Option<Table<'a>> {
-        let field = self.field(key);
+    fn subtable(&mut self, key: &'static str, errors: &mut Errors) -> Option<Table<'a, '_>> {
         let node = self.get(key)?;
-        Table::new(field, node, errors)
+        Table::new(self.field(key), node, errors)
     }
 
-    /// Reports every key that no reader took.
+    /// Reports every key that no reader took, in sorted order.
     fn finish(self, errors: &mut Errors) {
-        for (key, _) in self.entries {
-            if !self.taken.contains(&key.as_str()) {
-                let mut known: Vec<&str> = self.taken.clone();
-                known.sort_unstable();
-                known.dedup();
-                errors.push(
-                    &self.field(key),
-                    format!("unknown key; this table takes {}", known.join(", ")),
-                );
-            }
+        let mut unknown: Vec<&str> = self
+            .entries
+            .iter()
+            .map(|(key, _)| key.as_str())
+            .filter(|key| !self.taken.contains(key))
+            .collect();
+        if unknown.is_empty() {
+            return;
+        }
+        unknown.sort_unstable();
+        let mut known = self.taken.clone();
+        known.sort_unstable();
+        known.dedup();
+        let message = format!("unknown key; this table takes {}", known.join(", "));
+        for key in unknown {
+            errors.push(self.field(key), message.clone());
         }
     }
 }
@@ -347,7 +365,7 @@ pub(super) fn claim(tree: &Node) -> Result<Claim, Error> {
 }
 
 fn read_claim(tree: &Node, errors: &mut Errors) -> Option<Claim> {
-    let mut top = Table::new("", tree, errors)?;
+    let mut top = Table::new(Path::Root, tree, errors)?;
     let title = top.text("title", errors);
     if top.get("title").is_none() {
         errors.push("title", "is required: a short name for the claim");
@@ -440,17 +458,14 @@ fn read_claim(tree: &Node, errors: &mut Errors) -> Option<Claim> {
     })
 }
 
-fn read_craft(mut t: Table<'_>, errors: &mut Errors) -> Option<Craft> {
+fn read_craft(mut t: Table<'_, '_>, errors: &mut Errors) -> Option<Craft> {
     let mass = t.si("mass", Dim::Mass, MASS, errors);
     let mass_given = t.get("mass").is_some();
-    let size = t.text("size", errors).and_then(|s| {
-        let field = t.field("size");
-        match read_size(s) {
-            Ok(size) => Some(size),
-            Err(message) => {
-                errors.push(&field, message);
-                None
-            }
+    let size = t.text("size", errors).and_then(|s| match read_size(s) {
+        Ok(size) => Some(size),
+        Err(message) => {
+            errors.push(t.field("size"), message);
+            None
         }
     });
     let mut parts = Vec::new();
@@ -459,12 +474,12 @@ fn read_craft(mut t: Table<'_>, errors: &mut Errors) -> Option<Craft> {
         let field = t.field("parts");
         match node {
             Node::Array(items) if items.len() > MAX_PARTS => {
-                errors.push(&field, format!("at most {MAX_PARTS} parts"));
+                errors.push(field, format!("at most {MAX_PARTS} parts"));
                 parts_ok = false;
             }
             Node::Array(items) => {
                 for (i, item) in items.iter().enumerate() {
-                    match read_part(format!("{field}[{i}]"), item, errors) {
+                    match read_part(Path::Item(&field, i), item, errors) {
                         Some(p) => parts.push(p),
                         None => parts_ok = false,
                     }
@@ -472,7 +487,7 @@ fn read_craft(mut t: Table<'_>, errors: &mut Errors) -> Option<Craft> {
             }
             other => {
                 errors.push(
-                    &field,
+                    field,
                     format!("expected a list of parts, got {}", other.kind()),
                 );
                 parts_ok = false;
@@ -516,15 +531,15 @@ fn read_craft(mut t: Table<'_>, errors: &mut Errors) -> Option<Craft> {
     })
 }
 
-fn read_part(path: String, node: &Node, errors: &mut Errors) -> Option<Part> {
-    let mut t = Table::new(path.clone(), node, errors)?;
+fn read_part(path: Path<'_>, node: &Node, errors: &mut Errors) -> Option<Part> {
+    let mut t = Table::new(path, node, errors)?;
     let name = t.text("name", errors).map(str::to_string);
     if t.get("name").is_none() {
-        errors.push(&t.field("name"), "is required");
+        errors.push(t.field("name"), "is required");
     }
     let mass = t.si("mass", Dim::Mass, MASS, errors);
     if t.get("mass").is_none() {
-        errors.push(&t.field("mass"), "is required, such as '12 g'");
+        errors.push(t.field("mass"), "is required, such as '12 g'");
     }
     let count = match t.get("count") {
         Some(_) => t.count("count", 1, 1000, errors),
@@ -574,7 +589,7 @@ fn read_size(text: &str) -> Result<BoxSize, String> {
 
 const SPINS: [(&str, Spin); 2] = [("cw", Spin::Cw), ("ccw", Spin::Ccw)];
 
-fn read_rotors(mut t: Table<'_>, errors: &mut Errors) -> Option<Rotors> {
+fn read_rotors(mut t: Table<'_, '_>, errors: &mut Errors) -> Option<Rotors> {
     let count = t.count("count", 1, MAX_ROTORS, errors);
     let count_given = t.get("count").is_some();
     let layout = t.choice("layout", &Layout::ALL, errors);
@@ -608,7 +623,7 @@ fn read_rotors(mut t: Table<'_>, errors: &mut Errors) -> Option<Rotors> {
             None => {
                 let known: Vec<&str> = catalog::MOTORS.iter().map(|m| m.id).collect();
                 errors.push(
-                    &t.field("motor"),
+                    t.field("motor"),
                     format!(
                         "'{id}' is not a motor class in the catalog; known classes: {}",
                         known.join(", ")
@@ -634,15 +649,11 @@ fn read_rotors(mut t: Table<'_>, errors: &mut Errors) -> Option<Rotors> {
         Range::positive(50_000.0, watts),
         errors,
     );
-    let spins = t.get("spins").and_then(|node| {
-        let field = t.field("spins");
-        read_spin_list(&field, node, errors)
-    });
+    let spins = t
+        .get("spins")
+        .and_then(|node| read_spin_list(t.field("spins"), node, errors));
     let at = match t.get("at") {
-        Some(node) => {
-            let field = t.field("at");
-            read_at_list(&field, node, errors)
-        }
+        Some(node) => read_at_list(t.field("at"), node, errors),
         None => Some(Vec::new()),
     };
     t.finish(errors);
@@ -725,7 +736,7 @@ fn read_rotors(mut t: Table<'_>, errors: &mut Errors) -> Option<Rotors> {
     })
 }
 
-fn read_spin(field: &str, node: &Node, errors: &mut Errors) -> Option<Spin> {
+fn read_spin(field: Path<'_>, node: &Node, errors: &mut Errors) -> Option<Spin> {
     match node {
         Node::Str(s) => match SPINS.iter().find(|(id, _)| id == s) {
             Some((_, spin)) => Some(*spin),
@@ -744,7 +755,7 @@ fn read_spin(field: &str, node: &Node, errors: &mut Errors) -> Option<Spin> {
     }
 }
 
-fn read_spin_list(field: &str, node: &Node, errors: &mut Errors) -> Option<Vec<Spin>> {
+fn read_spin_list(field: Path<'_>, node: &Node, errors: &mut Errors) -> Option<Vec<Spin>> {
     let Node::Array(items) = node else {
         errors.push(
             field,
@@ -762,12 +773,12 @@ fn read_spin_list(field: &str, node: &Node, errors: &mut Errors) -> Option<Vec<S
     let spins: Vec<Option<Spin>> = items
         .iter()
         .enumerate()
-        .map(|(i, n)| read_spin(&format!("{field}[{i}]"), n, errors))
+        .map(|(i, n)| read_spin(Path::Item(&field, i), n, errors))
         .collect();
     spins.into_iter().collect()
 }
 
-fn read_at_list(field: &str, node: &Node, errors: &mut Errors) -> Option<Vec<RotorAt>> {
+fn read_at_list(field: Path<'_>, node: &Node, errors: &mut Errors) -> Option<Vec<RotorAt>> {
     let Node::Array(items) = node else {
         errors.push(
             field,
@@ -785,18 +796,18 @@ fn read_at_list(field: &str, node: &Node, errors: &mut Errors) -> Option<Vec<Rot
     let rotors: Vec<Option<RotorAt>> = items
         .iter()
         .enumerate()
-        .map(|(i, n)| read_at(format!("{field}[{i}]"), n, errors))
+        .map(|(i, n)| read_at(Path::Item(&field, i), n, errors))
         .collect();
     rotors.into_iter().collect()
 }
 
-fn read_at(path: String, node: &Node, errors: &mut Errors) -> Option<RotorAt> {
+fn read_at(path: Path<'_>, node: &Node, errors: &mut Errors) -> Option<RotorAt> {
     let mut t = Table::new(path, node, errors)?;
     let offset = Range::closed(-MAX_LENGTH_M, MAX_LENGTH_M, m);
-    let coordinate = |t: &mut Table<'_>, key: &'static str, errors: &mut Errors| {
+    let coordinate = |t: &mut Table<'_, '_>, key: &'static str, errors: &mut Errors| {
         let v = t.si(key, Dim::Length, offset, errors);
         if t.get(key).is_none() {
-            errors.push(&t.field(key), "is required, such as '70 mm'");
+            errors.push(t.field(key), "is required, such as '70 mm'");
         }
         v
     };
@@ -807,14 +818,14 @@ fn read_at(path: String, node: &Node, errors: &mut Errors) -> Option<RotorAt> {
         None => Some(0.0),
     };
     let spin = match t.get("spin") {
-        Some(node) => read_spin(&t.field("spin"), node, errors),
+        Some(node) => read_spin(t.field("spin"), node, errors),
         None => {
-            errors.push(&t.field("spin"), "is required: \"cw\" or \"ccw\"");
+            errors.push(t.field("spin"), "is required: \"cw\" or \"ccw\"");
             None
         }
     };
     let tilt_axis = match t.get("tilt_axis") {
-        Some(node) => Some(read_axis(&t.field("tilt_axis"), node, errors)?),
+        Some(node) => Some(read_axis(t.field("tilt_axis"), node, errors)?),
         None => None,
     };
     let tilt_range = t.si(
@@ -825,7 +836,7 @@ fn read_at(path: String, node: &Node, errors: &mut Errors) -> Option<RotorAt> {
     );
     if tilt_axis.is_some() && tilt_range.is_none() {
         errors.push(
-            &t.field("tilt_range"),
+            t.field("tilt_range"),
             "is required with a tilt_axis, such as '30 deg'",
         );
     }
@@ -841,7 +852,7 @@ fn read_at(path: String, node: &Node, errors: &mut Errors) -> Option<RotorAt> {
 }
 
 /// A tilt hinge: "x", "y", or a list of three numbers, normalised.
-fn read_axis(field: &str, node: &Node, errors: &mut Errors) -> Option<[f64; 3]> {
+fn read_axis(field: Path<'_>, node: &Node, errors: &mut Errors) -> Option<[f64; 3]> {
     let v = match node {
         Node::Str(s) if s == "x" => [1.0, 0.0, 0.0],
         Node::Str(s) if s == "y" => [0.0, 1.0, 0.0],
@@ -875,7 +886,7 @@ fn read_axis(field: &str, node: &Node, errors: &mut Errors) -> Option<[f64; 3]> 
     Some([v[0] / norm, v[1] / norm, v[2] / norm])
 }
 
-fn read_battery(mut t: Table<'_>, errors: &mut Errors) -> Option<Battery> {
+fn read_battery(mut t: Table<'_, '_>, errors: &mut Errors) -> Option<Battery> {
     let chemistry = t
         .text("chemistry", errors)
         .and_then(|id| match catalog::chemistry(id) {
@@ -883,7 +894,7 @@ fn read_battery(mut t: Table<'_>, errors: &mut Errors) -> Option<Battery> {
             None => {
                 let known: Vec<&str> = catalog::CHEMISTRIES.iter().map(|c| c.id).collect();
                 errors.push(
-                    &t.field("chemistry"),
+                    t.field("chemistry"),
                     format!("'{id}' is not one of: {}", known.join(", ")),
                 );
                 None
@@ -916,7 +927,7 @@ fn read_battery(mut t: Table<'_>, errors: &mut Errors) -> Option<Battery> {
     })
 }
 
-fn read_claimed(mut t: Table<'_>, errors: &mut Errors) -> Option<Claimed> {
+fn read_claimed(mut t: Table<'_, '_>, errors: &mut Errors) -> Option<Claimed> {
     let flight_time = t.si(
         "flight_time",
         Dim::Time,
@@ -947,7 +958,7 @@ fn read_claimed(mut t: Table<'_>, errors: &mut Errors) -> Option<Claimed> {
     })
 }
 
-fn read_sensing(mut t: Table<'_>, errors: &mut Errors) -> Sensing {
+fn read_sensing(mut t: Table<'_, '_>, errors: &mut Errors) -> Sensing {
     let gyroscope = t.flag("gyroscope", errors);
     let accelerometer = t.flag("accelerometer", errors);
     let barometer = t.flag("barometer", errors);
@@ -977,7 +988,7 @@ fn read_sensing(mut t: Table<'_>, errors: &mut Errors) -> Sensing {
     }
 }
 
-fn read_conditions(mut t: Table<'_>, errors: &mut Errors) -> Conditions {
+fn read_conditions(mut t: Table<'_, '_>, errors: &mut Errors) -> Conditions {
     // The ISA troposphere model holds from below sea level to 11 km.
     let altitude = t
         .si(
@@ -1001,5 +1012,24 @@ fn read_conditions(mut t: Table<'_>, errors: &mut Errors) -> Conditions {
         altitude: Length::new::<meter>(altitude),
         temperature: temperature.map(ThermodynamicTemperature::new::<kelvin>),
         wind: Velocity::new::<meter_per_second>(wind),
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn unknown_keys_are_reported_in_sorted_order() {
+        let text = r#"{"title": "t", "zeta": 1, "alpha": 2, "craft": {"zz": 1, "aa": 2}}"#;
+        let Err(Error::Invalid(errors)) = parse(text, Format::Json) else {
+            panic!("the sheet should be refused");
+        };
+        let unknown: Vec<&str> = errors
+            .iter()
+            .filter(|e| e.message.starts_with("unknown key"))
+            .map(|e| e.field.as_str())
+            .collect();
+        assert_eq!(unknown, ["craft.aa", "craft.zz", "alpha", "zeta"]);
     }
 }

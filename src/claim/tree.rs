@@ -1,6 +1,14 @@
 //! One document tree for both sheet formats, so TOML and JSON sheets are read
 //! by the same code and give the same field paths and messages.
 
+use std::collections::HashSet;
+use std::fmt;
+use std::ops::Range;
+
+use serde::de::{self, Deserialize, Deserializer, MapAccess, SeqAccess, Visitor};
+use toml::de::{DeTable, DeValue};
+use toml::Spanned;
+
 use super::{Error, Format};
 
 /// A value of a parsed sheet, before any field is interpreted.
@@ -11,6 +19,7 @@ pub enum Node {
     Float(f64),
     Bool(bool),
     Array(Vec<Node>),
+    /// Entries as the parser gives them: sorted by key from TOML, in document order from JSON.
     Table(Vec<(String, Node)>),
     /// A value of a kind a sheet never holds (a TOML date, a JSON null).
     Other(&'static str),
@@ -33,32 +42,32 @@ impl Node {
 
 /// Parses TOML text into a tree; a syntax error carries line and column.
 pub fn from_toml(text: &str) -> Result<Node, Error> {
-    match text.parse::<toml::Table>() {
-        Ok(table) => Ok(toml_table(table)),
-        Err(e) => {
-            let (line, column) = e
-                .span()
-                .map(|span| line_column(text, span.start))
-                .unwrap_or((1, 1));
-            Err(Error::Syntax {
-                format: Format::Toml,
-                line,
-                column,
-                message: e.message().trim().to_string(),
-            })
-        }
+    let table = DeTable::parse(text).map_err(|e| toml_error(text, e.message(), e.span()))?;
+    toml_table(text, table.into_inner())
+}
+
+/// A TOML syntax error at a byte span of the text.
+fn toml_error(text: &str, message: &str, span: Option<Range<usize>>) -> Error {
+    let (line, column) = span
+        .map(|span| line_column(text, span.start))
+        .unwrap_or((1, 1));
+    Error::Syntax {
+        format: Format::Toml,
+        line,
+        column,
+        message: message.trim().to_string(),
     }
 }
 
 /// Parses JSON text into a tree; a syntax error carries line and column.
 pub fn from_json(text: &str) -> Result<Node, Error> {
-    match serde_json::from_str::<serde_json::Value>(text) {
-        Ok(serde_json::Value::Object(map)) => Ok(json(serde_json::Value::Object(map))),
+    match serde_json::from_str::<Node>(text) {
+        Ok(node @ Node::Table(_)) => Ok(node),
         Ok(other) => Err(Error::Syntax {
             format: Format::Json,
             line: 1,
             column: 1,
-            message: format!("a claim sheet is a JSON object, got {}", json(other).kind()),
+            message: format!("a claim sheet is a JSON object, got {}", other.kind()),
         }),
         Err(e) => {
             let message = e.to_string();
@@ -77,36 +86,123 @@ pub fn from_json(text: &str) -> Result<Node, Error> {
     }
 }
 
-fn toml_table(table: toml::Table) -> Node {
-    Node::Table(table.into_iter().map(|(k, v)| (k, toml_value(v))).collect())
-}
-
-fn toml_value(value: toml::Value) -> Node {
-    match value {
-        toml::Value::String(s) => Node::Str(s),
-        toml::Value::Integer(i) => Node::Int(i),
-        toml::Value::Float(f) => Node::Float(f),
-        toml::Value::Boolean(b) => Node::Bool(b),
-        toml::Value::Array(items) => Node::Array(items.into_iter().map(toml_value).collect()),
-        toml::Value::Table(t) => toml_table(t),
-        toml::Value::Datetime(_) => Node::Other("a date"),
+/// Reads JSON straight into a tree, keys in document order.
+impl<'de> Deserialize<'de> for Node {
+    fn deserialize<D: Deserializer<'de>>(deserializer: D) -> Result<Node, D::Error> {
+        deserializer.deserialize_any(NodeVisitor)
     }
 }
 
-fn json(value: serde_json::Value) -> Node {
-    match value {
-        serde_json::Value::String(s) => Node::Str(s),
-        serde_json::Value::Number(n) => match n.as_i64() {
-            Some(i) => Node::Int(i),
-            None => Node::Float(n.as_f64().unwrap_or(f64::NAN)),
-        },
-        serde_json::Value::Bool(b) => Node::Bool(b),
-        serde_json::Value::Array(items) => Node::Array(items.into_iter().map(json).collect()),
-        serde_json::Value::Object(map) => {
-            Node::Table(map.into_iter().map(|(k, v)| (k, json(v))).collect())
+/// Builds a [`Node`] from whatever value the JSON text holds.
+struct NodeVisitor;
+
+impl<'de> Visitor<'de> for NodeVisitor {
+    type Value = Node;
+
+    fn expecting(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        f.write_str("a JSON value")
+    }
+
+    fn visit_bool<E: de::Error>(self, b: bool) -> Result<Node, E> {
+        Ok(Node::Bool(b))
+    }
+
+    fn visit_i64<E: de::Error>(self, i: i64) -> Result<Node, E> {
+        Ok(Node::Int(i))
+    }
+
+    fn visit_u64<E: de::Error>(self, u: u64) -> Result<Node, E> {
+        Ok(i64::try_from(u).map_or(Node::Float(u as f64), Node::Int))
+    }
+
+    fn visit_f64<E: de::Error>(self, f: f64) -> Result<Node, E> {
+        Ok(Node::Float(f))
+    }
+
+    fn visit_str<E: de::Error>(self, s: &str) -> Result<Node, E> {
+        Ok(Node::Str(s.to_string()))
+    }
+
+    fn visit_string<E: de::Error>(self, s: String) -> Result<Node, E> {
+        Ok(Node::Str(s))
+    }
+
+    fn visit_unit<E: de::Error>(self) -> Result<Node, E> {
+        Ok(Node::Other("null"))
+    }
+
+    fn visit_seq<A: SeqAccess<'de>>(self, mut seq: A) -> Result<Node, A::Error> {
+        let mut items = Vec::new();
+        while let Some(item) = seq.next_element()? {
+            items.push(item);
         }
-        serde_json::Value::Null => Node::Other("null"),
+        Ok(Node::Array(items))
     }
+
+    fn visit_map<A: MapAccess<'de>>(self, mut map: A) -> Result<Node, A::Error> {
+        let mut entries: Vec<(String, Node)> = Vec::new();
+        // Past a few keys a set finds a repeat sooner than a scan does.
+        let mut seen: HashSet<String> = HashSet::new();
+        while let Some(key) = map.next_key::<String>()? {
+            let repeated = if entries.len() < SCAN_KEYS {
+                entries.iter().any(|(k, _)| *k == key)
+            } else {
+                if seen.is_empty() {
+                    seen.extend(entries.iter().map(|(k, _)| k.clone()));
+                }
+                !seen.insert(key.clone())
+            };
+            if repeated {
+                return Err(de::Error::custom(format_args!("duplicate key `{key}`")));
+            }
+            entries.push((key, map.next_value()?));
+        }
+        Ok(Node::Table(entries))
+    }
+}
+
+/// Keys an object may hold before repeats are looked up in a set.
+const SCAN_KEYS: usize = 16;
+
+/// A TOML table as a tree node; `text` places an error in a number.
+fn toml_table(text: &str, table: DeTable<'_>) -> Result<Node, Error> {
+    let entries = table
+        .into_iter()
+        .map(|(k, v)| Ok((k.into_inner().into_owned(), toml_value(text, v)?)))
+        .collect::<Result<_, Error>>()?;
+    Ok(Node::Table(entries))
+}
+
+/// One TOML value as a tree node.
+fn toml_value(text: &str, value: Spanned<DeValue<'_>>) -> Result<Node, Error> {
+    let span = value.span();
+    Ok(match value.into_inner() {
+        DeValue::String(s) => Node::Str(s.into_owned()),
+        DeValue::Integer(i) => match i64::from_str_radix(i.as_str(), i.radix()) {
+            Ok(n) => Node::Int(n),
+            Err(e) => return Err(toml_error(text, &e.to_string(), Some(span))),
+        },
+        // A literal too large for f64 is refused; only `inf` itself is infinite.
+        DeValue::Float(f) => match f.as_str().parse::<f64>() {
+            Ok(x) if !x.is_infinite() || f.as_str().contains("inf") => Node::Float(x),
+            _ => {
+                return Err(toml_error(
+                    text,
+                    "invalid floating-point number",
+                    Some(span),
+                ))
+            }
+        },
+        DeValue::Boolean(b) => Node::Bool(b),
+        DeValue::Array(items) => Node::Array(
+            items
+                .into_iter()
+                .map(|v| toml_value(text, v))
+                .collect::<Result<_, Error>>()?,
+        ),
+        DeValue::Table(t) => toml_table(text, t)?,
+        DeValue::Datetime(_) => Node::Other("a date"),
+    })
 }
 
 /// One-based line and column (in characters) of a byte offset.
@@ -150,13 +246,67 @@ mod tests {
 
     #[test]
     fn a_json_sheet_must_be_an_object() {
-        assert!(matches!(from_json("[1, 2]"), Err(Error::Syntax { .. })));
+        assert!(matches!(
+            from_json("[1, 2]"),
+            Err(Error::Syntax { message, .. }) if message == "a claim sheet is a JSON object, got a list"
+        ));
+    }
+
+    #[test]
+    fn a_repeated_json_key_is_a_syntax_error_at_the_key() {
+        let err = from_json("{\n  \"title\": \"a\",\n  \"title\": \"b\"\n}").unwrap_err();
+        match err {
+            Error::Syntax {
+                line,
+                column,
+                message,
+                ..
+            } => {
+                assert_eq!((line, column), (3, 9));
+                assert_eq!(message, "duplicate key `title`");
+            }
+            other => panic!("expected a syntax error, got {other:?}"),
+        }
+    }
+
+    #[test]
+    fn a_repeated_key_in_a_large_json_object_is_refused_too() {
+        let keys: Vec<String> = (0..40).map(|i| format!("\"k{i}\": {i}")).collect();
+        let text = format!("{{{}, \"k7\": 0}}", keys.join(", "));
+        assert!(matches!(
+            from_json(&text),
+            Err(Error::Syntax { message, .. }) if message == "duplicate key `k7`"
+        ));
+        assert!(from_json(&format!("{{{}}}", keys.join(", "))).is_ok());
+    }
+
+    #[test]
+    fn json_numbers_beyond_i64_are_floats() {
+        let node = from_json(r#"{"a": 9223372036854775807, "b": 9223372036854775808, "c": 1.0}"#);
+        assert_eq!(
+            node.unwrap(),
+            Node::Table(vec![
+                ("a".into(), Node::Int(i64::MAX)),
+                ("b".into(), Node::Float(9_223_372_036_854_775_808.0)),
+                ("c".into(), Node::Float(1.0)),
+            ])
+        );
+    }
+
+    #[test]
+    fn a_json_table_keeps_the_document_order() {
+        let node = from_json(r#"{"z": 1, "a": 2}"#).unwrap();
+        assert_eq!(
+            node,
+            Node::Table(vec![("z".into(), Node::Int(1)), ("a".into(), Node::Int(2))])
+        );
     }
 
     #[test]
     fn both_formats_give_the_same_tree() {
+        // TOML tables come sorted by key; JSON ones keep the document's order.
         let t = from_toml("title = \"a\"\n[rotors]\ncount = 2\n").unwrap();
-        let j = from_json(r#"{"title": "a", "rotors": {"count": 2}}"#).unwrap();
+        let j = from_json(r#"{"rotors": {"count": 2}, "title": "a"}"#).unwrap();
         assert_eq!(t, j);
     }
 }

@@ -18,6 +18,11 @@ fn engine(c: &mut Criterion) {
         c.bench_function(&format!("parse/{}", d.name), |b| {
             b.iter(|| claim::parse_any(black_box(d.text)))
         });
+        let json = json_sheet(d.text);
+        assert_eq!(claim::parse_any(&json), Ok(claim.clone()), "{}", d.name);
+        c.bench_function(&format!("parse-json/{}", d.name), |b| {
+            b.iter(|| claim::parse_any(black_box(&json)))
+        });
         c.bench_function(&format!("check/{}", d.name), |b| {
             b.iter(|| rules::run_all(black_box(&claim)))
         });
@@ -45,6 +50,12 @@ fn engine(c: &mut Criterion) {
             })
         });
     }
+}
+
+/// The same sheet as JSON text, for timing the JSON reader.
+fn json_sheet(toml_text: &str) -> String {
+    let value: serde_json::Value = toml::from_str(toml_text).expect("demo is TOML");
+    serde_json::to_string_pretty(&value).expect("JSON text")
 }
 
 criterion_group!(benches, engine);
