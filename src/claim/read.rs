@@ -10,6 +10,8 @@ use uom::si::{
     velocity::meter_per_second,
 };
 
+use std::borrow::Cow;
+
 use super::tree::Node;
 use super::units::{self, Dim};
 use super::*;
@@ -63,7 +65,7 @@ impl fmt::Display for Path<'_> {
 /// can be reported as unknown.
 struct Table<'a, 'p> {
     path: Path<'p>,
-    entries: &'a [(String, Node)],
+    entries: &'a [(Cow<'a, str>, Node<'a>)],
     /// Keys asked for, found or not, for the unknown-key message.
     taken: Vec<&'static str>,
     /// One bit for each of the first 64 entries that was found.
@@ -71,7 +73,7 @@ struct Table<'a, 'p> {
 }
 
 impl<'a, 'p> Table<'a, 'p> {
-    fn new(path: Path<'p>, node: &'a Node, errors: &mut Errors) -> Option<Table<'a, 'p>> {
+    fn new(path: Path<'p>, node: &'a Node<'a>, errors: &mut Errors) -> Option<Table<'a, 'p>> {
         match node {
             Node::Table(entries) => Some(Table {
                 path,
@@ -91,7 +93,7 @@ impl<'a, 'p> Table<'a, 'p> {
         Path::Key(&self.path, key)
     }
 
-    fn get(&mut self, key: &'static str) -> Option<&'a Node> {
+    fn get(&mut self, key: &'static str) -> Option<&'a Node<'a>> {
         self.taken.push(key);
         let i = self.entries.iter().position(|(k, _)| k == key)?;
         if i < 64 {
@@ -110,7 +112,7 @@ impl<'a, 'p> Table<'a, 'p> {
                 );
                 None
             }
-            Node::Str(s) => Some(s.as_str()),
+            Node::Str(s) => Some(s),
             other => {
                 errors.push(
                     self.field(key),
@@ -253,7 +255,7 @@ impl<'a, 'p> Table<'a, 'p> {
         let mut unknown: Vec<&str> = self
             .entries
             .iter()
-            .map(|(key, _)| key.as_str())
+            .map(|(key, _)| key.as_ref())
             .filter(|key| !self.taken.contains(key))
             .collect();
         if unknown.is_empty() {
