@@ -187,10 +187,10 @@ impl<'de> Deserialize<'de> for Key<'de> {
 
 /// A TOML table as a tree node; `text` places an error in a number.
 fn toml_table<'t>(text: &str, table: DeTable<'t>) -> Result<Node<'t>, Error> {
-    let entries = table
-        .into_iter()
-        .map(|(k, v)| Ok((k.into_inner(), toml_value(text, v)?)))
-        .collect::<Result<_, Error>>()?;
+    let mut entries = Vec::with_capacity(table.len());
+    for (key, value) in table {
+        entries.push((key.into_inner(), toml_value(text, value)?));
+    }
     Ok(Node::Table(entries))
 }
 
