@@ -10,6 +10,8 @@ use uom::si::{
     velocity::meter_per_second,
 };
 
+use std::borrow::Cow;
+
 use super::tree::Node;
 use super::units::{self, Dim};
 use super::*;
@@ -23,6 +25,8 @@ const MAX_ROTORS: i64 = 64;
 const MAX_CELLS: i64 = 24;
 const MAX_PARTS: usize = 500;
 const MAX_TEXT: usize = 500;
+/// Keys the largest table reader asks for, with repeats.
+const KEYS: usize = 16;
 
 /// Collected field errors.
 #[derive(Default)]
@@ -61,17 +65,21 @@ impl fmt::Display for Path<'_> {
 /// can be reported as unknown.
 struct Table<'a, 'p> {
     path: Path<'p>,
-    entries: &'a [(String, Node)],
+    entries: &'a [(Cow<'a, str>, Node<'a>)],
+    /// Keys asked for, found or not, for the unknown-key message.
     taken: Vec<&'static str>,
+    /// One bit for each of the first 64 entries that was found.
+    found: u64,
 }
 
 impl<'a, 'p> Table<'a, 'p> {
-    fn new(path: Path<'p>, node: &'a Node, errors: &mut Errors) -> Option<Table<'a, 'p>> {
+    fn new(path: Path<'p>, node: &'a Node<'a>, errors: &mut Errors) -> Option<Table<'a, 'p>> {
         match node {
             Node::Table(entries) => Some(Table {
                 path,
                 entries,
-                taken: Vec::new(),
+                taken: Vec::with_capacity(KEYS),
+                found: 0,
             }),
             other => {
                 errors.push(path, format!("expected a table, got {}", other.kind()));
@@ -85,21 +93,26 @@ impl<'a, 'p> Table<'a, 'p> {
         Path::Key(&self.path, key)
     }
 
-    fn get(&mut self, key: &'static str) -> Option<&'a Node> {
+    fn get(&mut self, key: &'static str) -> Option<&'a Node<'a>> {
         self.taken.push(key);
-        self.entries.iter().find(|(k, _)| k == key).map(|(_, v)| v)
+        let i = self.entries.iter().position(|(k, _)| k == key)?;
+        if i < 64 {
+            self.found |= 1 << i;
+        }
+        Some(&self.entries[i].1)
     }
 
     fn text(&mut self, key: &'static str, errors: &mut Errors) -> Option<&'a str> {
         match self.get(key)? {
-            Node::Str(s) if s.chars().count() > MAX_TEXT => {
+            // No more bytes than MAX_TEXT is no more characters either.
+            Node::Str(s) if s.len() > MAX_TEXT && s.chars().count() > MAX_TEXT => {
                 errors.push(
                     self.field(key),
                     format!("is longer than {MAX_TEXT} characters"),
                 );
                 None
             }
-            Node::Str(s) => Some(s.as_str()),
+            Node::Str(s) => Some(s),
             other => {
                 errors.push(
                     self.field(key),
@@ -235,10 +248,14 @@ impl<'a, 'p> Table<'a, 'p> {
 
     /// Reports every key that no reader took, in sorted order.
     fn finish(self, errors: &mut Errors) {
+        // Keys in a table are unique, so a bit for every entry means all were taken.
+        if self.found.count_ones() as usize == self.entries.len() {
+            return;
+        }
         let mut unknown: Vec<&str> = self
             .entries
             .iter()
-            .map(|(key, _)| key.as_str())
+            .map(|(key, _)| key.as_ref())
             .filter(|key| !self.taken.contains(key))
             .collect();
         if unknown.is_empty() {
@@ -1031,5 +1048,24 @@ mod tests {
             .map(|e| e.field.as_str())
             .collect();
         assert_eq!(unknown, ["craft.aa", "craft.zz", "alpha", "zeta"]);
+    }
+
+    #[test]
+    fn a_known_key_after_many_unknown_ones_is_still_taken() {
+        let junk: Vec<String> = (0..70).map(|i| format!("\"x{i:02}\": 1")).collect();
+        let text = format!(
+            r#"{{"title": "t", "craft": {{{}, "mass": "1 kg"}}}}"#,
+            junk.join(", ")
+        );
+        let Err(Error::Invalid(errors)) = parse(&text, Format::Json) else {
+            panic!("the sheet should be refused");
+        };
+        let craft: Vec<&str> = errors
+            .iter()
+            .filter(|e| e.field.starts_with("craft."))
+            .map(|e| e.field.as_str())
+            .collect();
+        assert_eq!(craft.len(), 70);
+        assert!(!craft.contains(&"craft.mass"));
     }
 }

@@ -1,6 +1,7 @@
 //! One document tree for both sheet formats, so TOML and JSON sheets are read
 //! by the same code and give the same field paths and messages.
 
+use std::borrow::Cow;
 use std::collections::HashSet;
 use std::fmt;
 use std::ops::Range;
@@ -11,21 +12,22 @@ use toml::Spanned;
 
 use super::{Error, Format};
 
-/// A value of a parsed sheet, before any field is interpreted.
+/// A value of a parsed sheet, before any field is interpreted; its strings
+/// borrow from the sheet's text where they need no unescaping.
 #[derive(Debug, Clone, PartialEq)]
-pub enum Node {
-    Str(String),
+pub enum Node<'t> {
+    Str(Cow<'t, str>),
     Int(i64),
     Float(f64),
     Bool(bool),
-    Array(Vec<Node>),
+    Array(Vec<Node<'t>>),
     /// Entries as the parser gives them: sorted by key from TOML, in document order from JSON.
-    Table(Vec<(String, Node)>),
+    Table(Vec<(Cow<'t, str>, Node<'t>)>),
     /// A value of a kind a sheet never holds (a TOML date, a JSON null).
     Other(&'static str),
 }
 
-impl Node {
+impl Node<'_> {
     /// The word used in messages: "expected a string, got a table".
     pub fn kind(&self) -> &'static str {
         match self {
@@ -41,7 +43,7 @@ impl Node {
 }
 
 /// Parses TOML text into a tree; a syntax error carries line and column.
-pub fn from_toml(text: &str) -> Result<Node, Error> {
+pub fn from_toml(text: &str) -> Result<Node<'_>, Error> {
     let table = DeTable::parse(text).map_err(|e| toml_error(text, e.message(), e.span()))?;
     toml_table(text, table.into_inner())
 }
@@ -60,7 +62,7 @@ fn toml_error(text: &str, message: &str, span: Option<Range<usize>>) -> Error {
 }
 
 /// Parses JSON text into a tree; a syntax error carries line and column.
-pub fn from_json(text: &str) -> Result<Node, Error> {
+pub fn from_json(text: &str) -> Result<Node<'_>, Error> {
     match serde_json::from_str::<Node>(text) {
         Ok(node @ Node::Table(_)) => Ok(node),
         Ok(other) => Err(Error::Syntax {
@@ -87,8 +89,8 @@ pub fn from_json(text: &str) -> Result<Node, Error> {
 }
 
 /// Reads JSON straight into a tree, keys in document order.
-impl<'de> Deserialize<'de> for Node {
-    fn deserialize<D: Deserializer<'de>>(deserializer: D) -> Result<Node, D::Error> {
+impl<'de> Deserialize<'de> for Node<'de> {
+    fn deserialize<D: Deserializer<'de>>(deserializer: D) -> Result<Node<'de>, D::Error> {
         deserializer.deserialize_any(NodeVisitor)
     }
 }
@@ -97,41 +99,45 @@ impl<'de> Deserialize<'de> for Node {
 struct NodeVisitor;
 
 impl<'de> Visitor<'de> for NodeVisitor {
-    type Value = Node;
+    type Value = Node<'de>;
 
     fn expecting(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
         f.write_str("a JSON value")
     }
 
-    fn visit_bool<E: de::Error>(self, b: bool) -> Result<Node, E> {
+    fn visit_bool<E: de::Error>(self, b: bool) -> Result<Node<'de>, E> {
         Ok(Node::Bool(b))
     }
 
-    fn visit_i64<E: de::Error>(self, i: i64) -> Result<Node, E> {
+    fn visit_i64<E: de::Error>(self, i: i64) -> Result<Node<'de>, E> {
         Ok(Node::Int(i))
     }
 
-    fn visit_u64<E: de::Error>(self, u: u64) -> Result<Node, E> {
+    fn visit_u64<E: de::Error>(self, u: u64) -> Result<Node<'de>, E> {
         Ok(i64::try_from(u).map_or(Node::Float(u as f64), Node::Int))
     }
 
-    fn visit_f64<E: de::Error>(self, f: f64) -> Result<Node, E> {
+    fn visit_f64<E: de::Error>(self, f: f64) -> Result<Node<'de>, E> {
         Ok(Node::Float(f))
     }
 
-    fn visit_str<E: de::Error>(self, s: &str) -> Result<Node, E> {
-        Ok(Node::Str(s.to_string()))
+    fn visit_borrowed_str<E: de::Error>(self, s: &'de str) -> Result<Node<'de>, E> {
+        Ok(Node::Str(Cow::Borrowed(s)))
     }
 
-    fn visit_string<E: de::Error>(self, s: String) -> Result<Node, E> {
-        Ok(Node::Str(s))
+    fn visit_str<E: de::Error>(self, s: &str) -> Result<Node<'de>, E> {
+        Ok(Node::Str(Cow::Owned(s.to_string())))
     }
 
-    fn visit_unit<E: de::Error>(self) -> Result<Node, E> {
+    fn visit_string<E: de::Error>(self, s: String) -> Result<Node<'de>, E> {
+        Ok(Node::Str(Cow::Owned(s)))
+    }
+
+    fn visit_unit<E: de::Error>(self) -> Result<Node<'de>, E> {
         Ok(Node::Other("null"))
     }
 
-    fn visit_seq<A: SeqAccess<'de>>(self, mut seq: A) -> Result<Node, A::Error> {
+    fn visit_seq<A: SeqAccess<'de>>(self, mut seq: A) -> Result<Node<'de>, A::Error> {
         let mut items = Vec::new();
         while let Some(item) = seq.next_element()? {
             items.push(item);
@@ -139,11 +145,11 @@ impl<'de> Visitor<'de> for NodeVisitor {
         Ok(Node::Array(items))
     }
 
-    fn visit_map<A: MapAccess<'de>>(self, mut map: A) -> Result<Node, A::Error> {
-        let mut entries: Vec<(String, Node)> = Vec::new();
+    fn visit_map<A: MapAccess<'de>>(self, mut map: A) -> Result<Node<'de>, A::Error> {
+        let mut entries: Vec<(Cow<'de, str>, Node<'de>)> = Vec::new();
         // Past a few keys a set finds a repeat sooner than a scan does.
-        let mut seen: HashSet<String> = HashSet::new();
-        while let Some(key) = map.next_key::<String>()? {
+        let mut seen: HashSet<Cow<'de, str>> = HashSet::new();
+        while let Some(Key(key)) = map.next_key()? {
             let repeated = if entries.len() < SCAN_KEYS {
                 entries.iter().any(|(k, _)| *k == key)
             } else {
@@ -164,20 +170,35 @@ impl<'de> Visitor<'de> for NodeVisitor {
 /// Keys an object may hold before repeats are looked up in a set.
 const SCAN_KEYS: usize = 16;
 
+/// A JSON object key, borrowed from the text unless it has escapes.
+struct Key<'de>(Cow<'de, str>);
+
+impl<'de> Deserialize<'de> for Key<'de> {
+    fn deserialize<D: Deserializer<'de>>(deserializer: D) -> Result<Key<'de>, D::Error> {
+        match Node::deserialize(deserializer)? {
+            Node::Str(s) => Ok(Key(s)),
+            other => Err(de::Error::custom(format_args!(
+                "expected a key, got {}",
+                other.kind()
+            ))),
+        }
+    }
+}
+
 /// A TOML table as a tree node; `text` places an error in a number.
-fn toml_table(text: &str, table: DeTable<'_>) -> Result<Node, Error> {
-    let entries = table
-        .into_iter()
-        .map(|(k, v)| Ok((k.into_inner().into_owned(), toml_value(text, v)?)))
-        .collect::<Result<_, Error>>()?;
+fn toml_table<'t>(text: &str, table: DeTable<'t>) -> Result<Node<'t>, Error> {
+    let mut entries = Vec::with_capacity(table.len());
+    for (key, value) in table {
+        entries.push((key.into_inner(), toml_value(text, value)?));
+    }
     Ok(Node::Table(entries))
 }
 
 /// One TOML value as a tree node.
-fn toml_value(text: &str, value: Spanned<DeValue<'_>>) -> Result<Node, Error> {
+fn toml_value<'t>(text: &str, value: Spanned<DeValue<'t>>) -> Result<Node<'t>, Error> {
     let span = value.span();
     Ok(match value.into_inner() {
-        DeValue::String(s) => Node::Str(s.into_owned()),
+        DeValue::String(s) => Node::Str(s),
         DeValue::Integer(i) => match i64::from_str_radix(i.as_str(), i.radix()) {
             Ok(n) => Node::Int(n),
             Err(e) => return Err(toml_error(text, &e.to_string(), Some(span))),
@@ -289,6 +310,18 @@ mod tests {
                 ("a".into(), Node::Int(i64::MAX)),
                 ("b".into(), Node::Float(9_223_372_036_854_775_808.0)),
                 ("c".into(), Node::Float(1.0)),
+            ])
+        );
+    }
+
+    #[test]
+    fn escaped_json_keys_and_strings_are_unescaped() {
+        let node = from_json(r#"{"ti\u0074le": "a\nb", "plain": "c"}"#).unwrap();
+        assert_eq!(
+            node,
+            Node::Table(vec![
+                ("title".into(), Node::Str("a\nb".into())),
+                ("plain".into(), Node::Str("c".into())),
             ])
         );
     }
