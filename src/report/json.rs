@@ -173,9 +173,7 @@ impl Writer {
             let run = Escapes::Json.clean_run(rest);
             self.out.extend_from_slice(&rest[..run]);
             let Some(&b) = rest.get(run) else { break };
-            if let Some(escape) = escape(b) {
-                self.escaped(escape, b);
-            }
+            self.escaped(escape(b), b);
             rest = &rest[run + 1..];
         }
         self.out.push(b'"');
@@ -199,8 +197,10 @@ enum Escape {
     Unicode,
 }
 
-fn escape(b: u8) -> Option<Escape> {
-    Some(match b {
+/// How serde_json writes `b`, one of the bytes [`Escapes::Json`] escapes
+/// (a control byte without a short form gets `\u00XX`).
+fn escape(b: u8) -> Escape {
+    match b {
         b'"' => Escape::Short(b'"'),
         b'\\' => Escape::Short(b'\\'),
         0x08 => Escape::Short(b'b'),
@@ -208,9 +208,8 @@ fn escape(b: u8) -> Option<Escape> {
         b'\n' => Escape::Short(b'n'),
         0x0c => Escape::Short(b'f'),
         b'\r' => Escape::Short(b'r'),
-        0x00..=0x1f => Escape::Unicode,
-        _ => return None,
-    })
+        _ => Escape::Unicode,
+    }
 }
 
 #[cfg(test)]

@@ -8,6 +8,8 @@
 //! with SSE2 compares, sixteen bytes to an instruction; elsewhere byte by
 //! byte.
 
+use std::fmt;
+
 /// The bytes a rendering must escape.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
 pub enum Escapes {
@@ -22,6 +24,27 @@ impl Escapes {
         match self {
             Escapes::Json => b < 0x20 || b == b'"' || b == b'\\',
             Escapes::Html => matches!(b, b'"' | b'&' | b'\'' | b'<' | b'>'),
+        }
+    }
+
+    /// Writes `text` to `out` with each byte this class escapes replaced by
+    /// `entity(byte)`, copying the runs between them whole. The bytes of
+    /// both classes are ASCII, so every cut falls on a character boundary.
+    pub fn write<W: fmt::Write + ?Sized>(
+        self,
+        out: &mut W,
+        text: &str,
+        entity: impl Fn(u8) -> &'static str,
+    ) -> fmt::Result {
+        let mut rest = text;
+        loop {
+            let run = self.clean_run(rest.as_bytes());
+            out.write_str(&rest[..run])?;
+            let Some(&b) = rest.as_bytes().get(run) else {
+                return Ok(());
+            };
+            out.write_str(entity(b))?;
+            rest = &rest[run + 1..];
         }
     }
 

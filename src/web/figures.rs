@@ -66,36 +66,24 @@ const FILL_A: &str = "#9cc7c4";
 const FILL_B: &str = "#e3c58d";
 const DISC: &str = "#eef5f4";
 
-/// Escapes text for SVG (XML 1.0 section 2.4: `<` and `&` in text, quotes in attributes).
-pub fn esc(text: &str) -> String {
-    let mut out = String::with_capacity(text.len());
-    push_escaped(&mut out, text);
-    out
-}
-
-/// Appends `text` to `out` escaped as [`esc`] does, copying the runs
-/// between the characters it replaces whole ([`Escapes::clean_run`]).
-fn push_escaped(out: &mut String, text: &str) {
-    let mut rest = text;
-    loop {
-        let run = Escapes::Html.clean_run(rest.as_bytes());
-        out.push_str(&rest[..run]);
-        let Some(&b) = rest.as_bytes().get(run) else {
-            return;
-        };
-        out.push_str(match b {
-            b'<' => "&lt;",
-            b'>' => "&gt;",
-            b'&' => "&amp;",
-            b'"' => "&quot;",
-            _ => "&#39;",
-        });
-        // The five are ASCII, so the next byte starts a character.
-        rest = &rest[run + 1..];
+/// The entity for a character SVG text must not hold as it is (XML 1.0
+/// section 2.4: `<` and `&` in text, quotes in attributes).
+fn svg_entity(b: u8) -> &'static str {
+    match b {
+        b'<' => "&lt;",
+        b'>' => "&gt;",
+        b'&' => "&amp;",
+        b'"' => "&quot;",
+        _ => "&#39;",
     }
 }
 
-/// Writes into a String, escaping as [`esc`] does: text made by `format_args!`
+/// Appends `text` to `out` escaped for SVG ([`svg_entity`]).
+fn push_escaped(out: &mut String, text: &str) {
+    let _ = Escapes::Html.write(out, text, svg_entity);
+}
+
+/// Writes into a String, escaping for SVG: text made by `format_args!`
 /// goes into a drawing without a String of its own.
 struct Escaping<'a>(&'a mut String);
 
@@ -1043,9 +1031,8 @@ mod tests {
 
     #[test]
     fn svg_text_is_escaped() {
-        assert_eq!(
-            esc("<a href=\"x\">&'"),
-            "&lt;a href=&quot;x&quot;&gt;&amp;&#39;"
-        );
+        let mut out = String::new();
+        push_escaped(&mut out, "<a href=\"x\">&'");
+        assert_eq!(out, "&lt;a href=&quot;x&quot;&gt;&amp;&#39;");
     }
 }

@@ -36,23 +36,13 @@ impl Text<'_> {
 
 impl fmt::Display for Text<'_> {
     fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
-        let mut rest = self.0;
-        loop {
-            let run = Escapes::Html.clean_run(rest.as_bytes());
-            f.write_str(&rest[..run])?;
-            let Some(&b) = rest.as_bytes().get(run) else {
-                return Ok(());
-            };
-            f.write_str(match b {
-                b'"' => "&#34;",
-                b'&' => "&#38;",
-                b'\'' => "&#39;",
-                b'<' => "&#60;",
-                _ => "&#62;",
-            })?;
-            // The five are ASCII, so the next byte starts a character.
-            rest = &rest[run + 1..];
-        }
+        Escapes::Html.write(f, self.0, |b| match b {
+            b'"' => "&#34;",
+            b'&' => "&#38;",
+            b'\'' => "&#39;",
+            b'<' => "&#60;",
+            _ => "&#62;",
+        })
     }
 }
 
