@@ -9,10 +9,9 @@ use std::fmt;
 /// arithmetic, and it was a quarter of the verdict page's CPU under load
 /// (tests/load.sh), in the drawings' coordinates, the figure tables and
 /// the headlines.
-/// Here the value is scaled by the exact power of ten and rounded as an
-/// integer; a value within a hair of a tie (where the exact binary value
-/// decides the rounding) or too large for the scaled product to be exact to
-/// 1e-6 goes to the standard formatter.
+/// Here the exact binary value times the power of ten is rounded in integer
+/// arithmetic, ties to even as the standard formatter rounds them; only a
+/// value of 1e9 or more once scaled goes to the standard formatter.
 pub struct Fixed(pub f64, pub usize);
 
 impl fmt::Display for Fixed {
@@ -37,6 +36,14 @@ pub fn push_fixed(out: &mut String, v: f64, places: usize) {
     }
 }
 
+/// "00" to "99", for writing whole numbers two digits at a time.
+const DIGIT_PAIRS: &[u8; 200] = b"\
+    0001020304050607080910111213141516171819\
+    2021222324252627282930313233343536373839\
+    4041424344454647484950515253545556575859\
+    6061626364656667686970717273747576777879\
+    8081828384858687888990919293949596979899";
+
 /// `v` to `places` decimals in `buf`, or `None` where the standard
 /// formatter must decide (see [`Fixed`]).
 fn fast_fixed(v: f64, places: usize, buf: &mut [u8; 16]) -> Option<&str> {
@@ -56,34 +63,68 @@ fn fast_fixed(v: f64, places: usize, buf: &mut [u8; 16]) -> Option<&str> {
         1_000_000_000_000,
     ];
     let &unit = POW10.get(places)?;
-    // Powers of ten up to 1e22 are exact in f64; below 1e9 the product's
-    // rounding error stays under 1.2e-7.
-    let scaled = v * unit as f64;
-    if scaled.is_nan() || scaled.abs() >= 1e9 {
+    // Below 1e9 the digits fit the buffer (see below).
+    let scaled = v.abs() * (unit as f64);
+    if scaled.is_nan() || scaled >= 1e9 {
         return None;
     }
-    // Rounding by hand: `f64::round` is a call into libm on the baseline
-    // x86-64 target, and the tie test needs the fraction anyway.
-    let magnitude = scaled.abs();
-    let whole = magnitude as u64;
-    let fraction = magnitude - whole as f64;
-    if (fraction - 0.5).abs() < 1e-6 {
+    // v is m * 2^e exactly (IEEE 754 binary64), so v * 10^places is
+    // m * 10^places / 2^shift, and the bits shifted out say exactly which way
+    // to round: up past half, to even on a tie, as the standard formatter
+    // rounds the exact binary value.
+    let bits = v.to_bits();
+    let biased = ((bits >> 52) & 0x7ff) as i32;
+    let (m, e) = match biased {
+        0 => (bits & ((1 << 52) - 1), -1074),
+        _ => ((bits & ((1 << 52) - 1)) | (1 << 52), biased - 1075),
+    };
+    if e >= 0 {
+        // |v| >= 2^52: never below the bound above.
         return None;
     }
-    let mut n = whole + u64::from(fraction > 0.5);
-    // The digits, last first. n < 1e9 with at most 12 places: 13 digits,
-    // the point and a sign.
+    let product = u128::from(m) * u128::from(unit);
+    let shift = e.unsigned_abs();
+    // product < 2^93, so past 2^-127 the value rounds to zero.
+    let n = if shift >= 127 {
+        0
+    } else {
+        let whole = product >> shift;
+        let rest = product & ((1 << shift) - 1);
+        let half = 1 << (shift - 1);
+        let up = rest > half || (rest == half && whole & 1 == 1);
+        (whole + u128::from(up)) as u64
+    };
+    // Whole part and decimals; the usual precisions divide by a constant,
+    // which the compiler turns into a multiplication.
+    let (mut whole, mut decimals) = match places {
+        0 => (n, 0),
+        1 => (n / 10, n % 10),
+        2 => (n / 100, n % 100),
+        _ => (n / unit, n % unit),
+    };
+    // Written last first: exactly `places` decimals, the point, then the
+    // whole part two digits at a time. n <= 1e9 with at most 12 places
+    // makes at most 14 characters and a sign.
     let mut at = buf.len();
-    let mut written = 0;
-    while n > 0 || written <= places {
-        if written == places && places > 0 {
-            at -= 1;
-            buf[at] = b'.';
-        }
+    for _ in 0..places {
         at -= 1;
-        buf[at] = b'0' + (n % 10) as u8;
-        n /= 10;
-        written += 1;
+        buf[at] = b'0' + (decimals % 10) as u8;
+        decimals /= 10;
+    }
+    if places > 0 {
+        at -= 1;
+        buf[at] = b'.';
+    }
+    let point = at;
+    while whole >= 10 {
+        let pair = (whole % 100) as usize * 2;
+        whole /= 100;
+        at -= 2;
+        buf[at..at + 2].copy_from_slice(&DIGIT_PAIRS[pair..pair + 2]);
+    }
+    if whole > 0 || at == point {
+        at -= 1;
+        buf[at] = b'0' + whole as u8;
     }
     // The standard formatter keeps the sign of a negative value that
     // rounds to zero ("-0.0").
@@ -159,6 +200,16 @@ mod tests {
         ];
         // Every tie k/20 over a range, and a spread of awkward values.
         values.extend((-4000..4000).map(|k| f64::from(k) / 20.0));
+        // Exact binary ties at every precision tested, subnormals, and the
+        // bound.
+        values.extend((-4000..4000).map(|k| f64::from(k) / 4096.0));
+        values.extend([
+            5e-324,
+            -5e-324,
+            f64::MIN_POSITIVE,
+            999_999_999.5,
+            99_999_999.95,
+        ]);
         let mut x: u64 = 0x9E37_79B9_7F4A_7C15;
         for _ in 0..20_000 {
             x ^= x << 13;
