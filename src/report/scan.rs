@@ -85,17 +85,29 @@ impl Escapes {
             }
             i += 16;
         }
-        // The last few bytes, padded to sixteen with a letter, which no
-        // rendering escapes: one more compare instead of a byte loop.
-        let tail = &bytes[i..];
-        if tail.is_empty() {
+        let left = bytes.len() - i;
+        if left == 0 {
             return i;
         }
-        let mut padded = [b'a'; 16];
-        padded[..tail.len()].copy_from_slice(tail);
-        // SAFETY: `padded` is sixteen bytes.
-        let v = unsafe { _mm_loadu_si128(padded.as_ptr().cast()) };
-        let mask = _mm_movemask_epi8(self.marks(v)) as u32;
+        if i == 0 {
+            // Shorter than sixteen bytes: into a block padded with a letter,
+            // which no rendering escapes, by two overlapping fixed-size
+            // copies (a copy of variable length is a call to memcpy).
+            // SAFETY: the padded block is sixteen bytes.
+            let v = unsafe { _mm_loadu_si128(padded(bytes).as_ptr().cast()) };
+            let mask = _mm_movemask_epi8(self.marks(v)) as u32;
+            return if mask == 0 {
+                bytes.len()
+            } else {
+                mask.trailing_zeros() as usize
+            };
+        }
+        // The last few bytes: the sixteen that end the text, of which the
+        // first 16 - left were clean above, so their lanes are dropped.
+        // SAFETY: i >= 16 here, so len - 16 >= 0 and the sixteen bytes read
+        // end at the end of the slice.
+        let v = unsafe { _mm_loadu_si128(bytes.as_ptr().add(bytes.len() - 16).cast()) };
+        let mask = (_mm_movemask_epi8(self.marks(v)) as u32) >> (16 - left);
         if mask == 0 {
             bytes.len()
         } else {
@@ -124,27 +136,51 @@ impl Escapes {
     }
 }
 
+/// `bytes` (fewer than sixteen) at the start of sixteen, the rest `a`.
+#[cfg(target_arch = "x86_64")]
+fn padded(bytes: &[u8]) -> [u8; 16] {
+    let mut block = [b'a'; 16];
+    let n = bytes.len();
+    // The first and the last k bytes cover all n when k <= n <= 2k.
+    let mut copy = |k: usize| {
+        block[..k].copy_from_slice(&bytes[..k]);
+        block[n - k..n].copy_from_slice(&bytes[n - k..]);
+    };
+    match n {
+        8.. => copy(8),
+        4..=7 => copy(4),
+        2..=3 => copy(2),
+        1 => block[0] = bytes[0],
+        0 => {}
+    }
+    block
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;
 
     #[test]
     fn the_run_ends_at_each_byte_to_escape_at_every_offset() {
-        // Offsets across two sixteen-byte blocks and the bytewise tail.
+        // Every length up to three sixteen-byte blocks (the short texts, the
+        // whole blocks and the overlapping tail), every offset within it.
         for class in [Escapes::Json, Escapes::Html] {
             for b in 0..=255u8 {
-                for at in 0..40 {
-                    let mut text = vec![b'a'; 40];
-                    text[at] = b;
-                    let expected = if class.needs(b) { at } else { 40 };
-                    assert_eq!(
-                        class.clean_run(&text),
-                        expected,
-                        "{class:?} {b:#04x} at {at}"
-                    );
-                    assert_eq!(class.clean_run_bytes(&text), expected);
+                for len in 1..=48 {
+                    for at in 0..len {
+                        let mut text = vec![b'a'; len];
+                        text[at] = b;
+                        let expected = if class.needs(b) { at } else { len };
+                        assert_eq!(
+                            class.clean_run(&text),
+                            expected,
+                            "{class:?} {b:#04x} at {at} of {len}"
+                        );
+                        assert_eq!(class.clean_run_bytes(&text), expected);
+                    }
                 }
             }
+            assert_eq!(class.clean_run(b""), 0);
         }
     }
 
