@@ -32,6 +32,11 @@ pub struct Drawing {
 }
 
 impl Drawing {
+    /// The caption for the page, escaped as [`super::view::Text`].
+    pub fn caption_text(&self) -> super::view::Text<'_> {
+        super::view::Text(&self.caption)
+    }
+
     fn omitted(id: &'static str, title: &'static str, reason: &str) -> Drawing {
         Drawing {
             id,
@@ -573,14 +578,14 @@ pub fn thrust_bar(report: &Report) -> Drawing {
         10.5,
         INK,
         format_args!(
-            "bar: all rotors at full power; solid mark: {:.0} % of it, the most to hover on",
-            hover_share * 100.0
+            "bar: all rotors at full power; solid mark: {} % of it, the most to hover on",
+            Fixed(hover_share * 100.0, 0)
         ),
     );
     let caption = format!(
-        "Bars to scale: the thrust all rotors give at full power under each set of assumptions. The dashed line is the weight, {} N; the solid mark on each bar is {:.0} % of that bar, the most a craft should spend just to hover.",
+        "Bars to scale: the thrust all rotors give at full power under each set of assumptions. The dashed line is the weight, {} N; the solid mark on each bar is {} % of that bar, the most a craft should spend just to hover.",
         Sig3(weight),
-        hover_share * 100.0
+        Fixed(hover_share * 100.0, 0)
     );
     Drawing {
         id: ID,

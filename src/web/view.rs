@@ -34,9 +34,9 @@ impl Text<'_> {
     }
 }
 
-impl fmt::Display for Text<'_> {
-    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
-        Escapes::Html.write(f, self.0, |b| match b {
+impl Text<'_> {
+    fn write_to<W: fmt::Write + ?Sized>(&self, out: &mut W) -> fmt::Result {
+        Escapes::Html.write(out, self.0, |b| match b {
             b'"' => "&#34;",
             b'&' => "&#38;",
             b'\'' => "&#39;",
@@ -46,8 +46,27 @@ impl fmt::Display for Text<'_> {
     }
 }
 
+impl fmt::Display for Text<'_> {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        self.write_to(f)
+    }
+}
+
 // Its Display escapes, so askama must not escape it again.
 impl askama::filters::HtmlSafe for Text<'_> {}
+
+// Askama writes a value that is FastWritable straight into the page, not
+// through `write!` and a Formatter: a verdict page has some 250 values, and
+// the formatting machinery around each cost more than escaping it.
+impl askama::FastWritable for Text<'_> {
+    fn write_into<W: fmt::Write + ?Sized>(
+        &self,
+        dest: &mut W,
+        _: &dyn askama::Values,
+    ) -> askama::Result<()> {
+        Ok(self.write_to(dest)?)
+    }
+}
 
 /// A value in a finding's table: counts as whole numbers, everything else
 /// to three significant figures ([`Sig3`]), "-" where a tier has none.
@@ -81,6 +100,16 @@ impl fmt::Display for Cell {
 // Digits, '.', '-', "n/a" and "unbounded" only: nothing to escape.
 impl askama::filters::HtmlSafe for Cell {}
 
+impl askama::FastWritable for Cell {
+    fn write_into<W: fmt::Write + ?Sized>(
+        &self,
+        dest: &mut W,
+        _: &dyn askama::Values,
+    ) -> askama::Result<()> {
+        Ok(write!(dest, "{self}")?)
+    }
+}
+
 /// A unit as the table prints it; a pure number is marked as a ratio.
 fn unit_label(unit: &'static str) -> &'static str {
     match unit {
@@ -93,18 +122,18 @@ fn unit_label(unit: &'static str) -> &'static str {
 /// nothing depends on telling colours apart.
 #[derive(Debug, Clone)]
 pub struct VerdictView {
-    pub id: &'static str,
-    pub label: &'static str,
-    pub meaning: &'static str,
+    pub id: Text<'static>,
+    pub label: Text<'static>,
+    pub meaning: Text<'static>,
     pub icon: &'static str,
 }
 
 impl VerdictView {
     pub fn of(v: Verdict) -> VerdictView {
         VerdictView {
-            id: v.id(),
-            label: v.label(),
-            meaning: v.meaning(),
+            id: Text(v.id()),
+            label: Text(v.label()),
+            meaning: Text(v.meaning()),
             icon: icon(v),
         }
     }
@@ -158,7 +187,7 @@ fn rule_title(id: &'static str) -> &'static str {
 pub struct FigureRow<'a> {
     pub key: &'static str,
     pub label: Text<'a>,
-    pub unit: &'static str,
+    pub unit: Text<'static>,
     /// Values at physical limit, best practice, typical.
     pub by_tier: [Cell; 3],
     /// The value of a tier-independent figure.
@@ -176,7 +205,7 @@ pub fn figure_rows(figures: &[Figure]) -> Vec<FigureRow<'_>> {
                 rows.push(FigureRow {
                     key: f.key,
                     label: Text(&f.label),
-                    unit: unit_label(f.unit),
+                    unit: Text(unit_label(f.unit)),
                     by_tier: [Cell::Missing; 3],
                     fixed: None,
                 });
@@ -193,14 +222,14 @@ pub fn figure_rows(figures: &[Figure]) -> Vec<FigureRow<'_>> {
 
 #[derive(Debug, Clone)]
 pub struct SourceLink {
-    pub id: &'static str,
-    pub title: &'static str,
+    pub id: Text<'static>,
+    pub title: Text<'static>,
 }
 
 #[derive(Debug, Clone)]
 pub struct FindingView<'a> {
-    pub rule: &'static str,
-    pub rule_title: &'static str,
+    pub rule: Text<'static>,
+    pub rule_title: Text<'static>,
     pub verdict: VerdictView,
     pub headline: Text<'a>,
     pub rows: Vec<FigureRow<'a>>,
@@ -212,8 +241,8 @@ pub struct FindingView<'a> {
 impl<'a> FindingView<'a> {
     pub fn of(f: &'a Finding) -> FindingView<'a> {
         FindingView {
-            rule: f.rule,
-            rule_title: rule_title(f.rule),
+            rule: Text(f.rule),
+            rule_title: Text(rule_title(f.rule)),
             verdict: VerdictView::of(f.verdict),
             headline: Text(&f.headline),
             rows: figure_rows(&f.figures),
@@ -223,8 +252,8 @@ impl<'a> FindingView<'a> {
                 .sources
                 .iter()
                 .map(|id| SourceLink {
-                    id,
-                    title: sources::get(id).map(|s| s.title).unwrap_or(id),
+                    id: Text(id),
+                    title: Text(sources::get(id).map(|s| s.title).unwrap_or(id)),
                 })
                 .collect(),
         }
@@ -291,13 +320,18 @@ pub struct VerdictPage<'a> {
     pub summary: String,
     pub findings: Vec<FindingView<'a>>,
     pub drawings: Vec<Drawing>,
-    pub tiers: [&'static str; 3],
-    pub cautions: &'a [&'static str],
-    pub engine: &'static str,
+    pub tiers: [Text<'static>; 3],
+    pub cautions: Vec<Text<'static>>,
+    pub engine: Text<'static>,
     pub downloads: Downloads,
 }
 
 impl<'a> VerdictPage<'a> {
+    /// The summary for the page, escaped as [`Text`].
+    pub fn summary_text(&self) -> Text<'_> {
+        Text(&self.summary)
+    }
+
     pub fn new(report: &'a Report, claim: &'a Claim, downloads: Downloads) -> VerdictPage<'a> {
         VerdictPage {
             title: Text(&report.title),
@@ -306,9 +340,9 @@ impl<'a> VerdictPage<'a> {
             summary: summary(report),
             findings: report.findings.iter().map(FindingView::of).collect(),
             drawings: figures::all(report, claim),
-            tiers: Tier::ALL.map(|t| t.label()),
-            cautions: &report.cautions,
-            engine: report.engine,
+            tiers: Tier::ALL.map(|t| Text(t.label())),
+            cautions: report.cautions.iter().map(|c| Text(c)).collect(),
+            engine: Text(report.engine),
             downloads,
         }
     }
@@ -457,7 +491,7 @@ mod tests {
             Some("3.04")
         );
         assert_eq!(rows[1].by_tier.map(|c| c.to_string()), ["4", "-", "15"]);
-        assert_eq!(rows[1].unit, "no unit");
+        assert_eq!(rows[1].unit.0, "no unit");
     }
 
     #[test]
