@@ -17,8 +17,9 @@ pub struct Fixed(pub f64, pub usize);
 impl fmt::Display for Fixed {
     fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
         let Fixed(v, places) = *self;
-        match fast_fixed(v, places, &mut [0; 16]) {
-            Some(digits) => f.write_str(digits),
+        let mut buf = Digits::new();
+        match fast_fixed(v, places, &mut buf) {
+            Some(at) => f.write_str(buf.text(at)),
             None => write!(f, "{v:.places$}"),
         }
     }
@@ -27,12 +28,52 @@ impl fmt::Display for Fixed {
 /// Appends [`Fixed`]`(v, places)` to `out` straight from the digit buffer,
 /// for the drawings, which write hundreds of coordinates a page.
 pub fn push_fixed(out: &mut String, v: f64, places: usize) {
-    match fast_fixed(v, places, &mut [0; 16]) {
-        Some(digits) => out.push_str(digits),
+    let mut buf = Digits::new();
+    match fast_fixed(v, places, &mut buf) {
+        Some(at) => {
+            // Sixteen bytes from the first digit, then the length cut back:
+            // a copy of fixed size is a few moves, one of the digits' own
+            // length a call to memcpy, and a page makes hundreds.
+            let len = out.len() + (END - at);
+            out.push_str(buf.block(at));
+            out.truncate(len);
+        }
         None => {
             use fmt::Write as _;
             let _ = write!(out, "{v:.places$}");
         }
+    }
+}
+
+/// Where the digits end in [`Digits`]; the sixteen bytes after it are
+/// there to be copied past the end.
+const END: usize = 16;
+
+/// A number's characters, last first, ending at [`END`]; every byte is
+/// ASCII (digits, '.', '-', and the zeros it starts as).
+struct Digits([u8; 2 * END]);
+
+impl Digits {
+    fn new() -> Digits {
+        Digits([0; 2 * END])
+    }
+
+    /// The number that starts at `at`.
+    fn text(&self, at: usize) -> &str {
+        Self::ascii(&self.0[at..END])
+    }
+
+    /// Sixteen bytes from `at`: the number and whatever follows it.
+    fn block(&self, at: usize) -> &str {
+        Self::ascii(&self.0[at..at + END])
+    }
+
+    fn ascii(bytes: &[u8]) -> &str {
+        debug_assert!(bytes.is_ascii());
+        // SAFETY: only ASCII digits, '.', '-' and zeros are ever stored,
+        // and ASCII is UTF-8. (Checking it again was a tenth of a verdict
+        // page's drawing.)
+        unsafe { std::str::from_utf8_unchecked(bytes) }
     }
 }
 
@@ -44,9 +85,41 @@ const DIGIT_PAIRS: &[u8; 200] = b"\
     6061626364656667686970717273747576777879\
     8081828384858687888990919293949596979899";
 
-/// `v` to `places` decimals in `buf`, or `None` where the standard
-/// formatter must decide (see [`Fixed`]).
-fn fast_fixed(v: f64, places: usize, buf: &mut [u8; 16]) -> Option<&str> {
+/// `product / 2^shift` rounded to the nearest integer, ties to even; zero
+/// once the shift passes the product's `bits` (the product is below half of
+/// it then).
+fn round_shifted<T>(product: T, shift: u32, bits: u32) -> T
+where
+    T: Copy
+        + From<u8>
+        + PartialEq
+        + PartialOrd
+        + std::ops::Shr<u32, Output = T>
+        + std::ops::Shl<u32, Output = T>
+        + std::ops::BitAnd<Output = T>
+        + std::ops::Add<Output = T>
+        + std::ops::Sub<Output = T>,
+{
+    if shift >= bits {
+        return T::from(0);
+    }
+    let one = T::from(1);
+    let whole = product >> shift;
+    let rest = product & ((one << shift) - one);
+    let half = one << (shift - 1);
+    let up = rest > half || (rest == half && whole & one == one);
+    whole + T::from(u8::from(up))
+}
+
+/// 10^places as an f64, exact up to 10^22.
+const POW10_F64: [f64; 13] = [
+    1e0, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12,
+];
+
+/// `v` to `places` decimals in `buf`, starting at the index returned, or
+/// `None` where the standard formatter must decide (see [`Fixed`]).
+fn fast_fixed(v: f64, places: usize, digits: &mut Digits) -> Option<usize> {
+    let buf = &mut digits.0;
     const POW10: [u64; 13] = [
         1,
         10,
@@ -63,8 +136,9 @@ fn fast_fixed(v: f64, places: usize, buf: &mut [u8; 16]) -> Option<&str> {
         1_000_000_000_000,
     ];
     let &unit = POW10.get(places)?;
-    // Below 1e9 the digits fit the buffer (see below).
-    let scaled = v.abs() * (unit as f64);
+    // Below 1e9 the digits fit the buffer (see below). (The powers of ten
+    // as floats: converting a u64 takes a dozen instructions.)
+    let scaled = v.abs() * POW10_F64[places];
     if scaled.is_nan() || scaled >= 1e9 {
         return None;
     }
@@ -82,17 +156,13 @@ fn fast_fixed(v: f64, places: usize, buf: &mut [u8; 16]) -> Option<&str> {
         // |v| >= 2^52: never below the bound above.
         return None;
     }
-    let product = u128::from(m) * u128::from(unit);
     let shift = e.unsigned_abs();
-    // product < 2^93, so past 2^-127 the value rounds to zero.
-    let n = if shift >= 127 {
-        0
+    // m < 2^53: with up to three places (10^3 < 2^10) the product fits 64
+    // bits, which is what the drawings and tables use; else 128 (< 2^93).
+    let n = if places <= 3 {
+        round_shifted(m * unit, shift, 64)
     } else {
-        let whole = product >> shift;
-        let rest = product & ((1 << shift) - 1);
-        let half = 1 << (shift - 1);
-        let up = rest > half || (rest == half && whole & 1 == 1);
-        (whole + u128::from(up)) as u64
+        round_shifted(u128::from(m) * u128::from(unit), shift, 128) as u64
     };
     // Whole part and decimals; the usual precisions divide by a constant,
     // which the compiler turns into a multiplication.
@@ -105,7 +175,7 @@ fn fast_fixed(v: f64, places: usize, buf: &mut [u8; 16]) -> Option<&str> {
     // Written last first: exactly `places` decimals, the point, then the
     // whole part two digits at a time. n <= 1e9 with at most 12 places
     // makes at most 14 characters and a sign.
-    let mut at = buf.len();
+    let mut at = END;
     for _ in 0..places {
         at -= 1;
         buf[at] = b'0' + (decimals % 10) as u8;
@@ -132,13 +202,7 @@ fn fast_fixed(v: f64, places: usize, buf: &mut [u8; 16]) -> Option<&str> {
         at -= 1;
         buf[at] = b'-';
     }
-    let digits = &buf[at..];
-    debug_assert!(digits
-        .iter()
-        .all(|b| b.is_ascii_digit() || b".-".contains(b)));
-    // SAFETY: only ASCII digits, '.' and '-' were written, and ASCII is
-    // UTF-8. (Checking it again was a tenth of a verdict page's drawing.)
-    Some(unsafe { std::str::from_utf8_unchecked(digits) })
+    Some(at)
 }
 
 /// `v` to three significant figures, no exponent ("5.07", "1235",
