@@ -115,6 +115,34 @@ struct Svg {
     body: String,
 }
 
+/// A piece of an element as [`markup!`] writes it: markup of ours as it
+/// is, a number to one decimal.
+trait Piece {
+    fn put(self, out: &mut String);
+}
+
+impl Piece for &str {
+    fn put(self, out: &mut String) {
+        out.push_str(self);
+    }
+}
+
+impl Piece for f64 {
+    fn put(self, out: &mut String) {
+        push_fixed(out, self, 1);
+    }
+}
+
+/// Appends markup and numbers in turn, each markup piece a literal with
+/// the syntax around the numbers (`"<line x1=\""`, `"\" y1=\""`), so that
+/// it is copied as one block of known length.
+macro_rules! markup {
+    ($out:expr, $($piece:expr),+ $(,)?) => {{
+        let out: &mut String = $out;
+        $(Piece::put($piece, out);)+
+    }};
+}
+
 impl Svg {
     fn new(width: f64, height: f64) -> Svg {
         Svg {
@@ -125,28 +153,6 @@ impl Svg {
         }
     }
 
-    /// `<tag` and its numeric attributes, to one decimal.
-    fn open(&mut self, tag: &str, numbers: &[(&str, f64)]) {
-        self.body.push('<');
-        self.body.push_str(tag);
-        for &(name, v) in numbers {
-            self.body.push(' ');
-            self.body.push_str(name);
-            self.body.push_str("=\"");
-            push_fixed(&mut self.body, v, 1);
-            self.body.push('"');
-        }
-    }
-
-    /// One attribute with a value of ours (a colour, a keyword), not escaped.
-    fn attr(&mut self, name: &str, value: &str) {
-        self.body.push(' ');
-        self.body.push_str(name);
-        self.body.push_str("=\"");
-        self.body.push_str(value);
-        self.body.push('"');
-    }
-
     fn line(
         &mut self,
         (x1, y1): (f64, f64),
@@ -155,21 +161,26 @@ impl Svg {
         w: f64,
         dash: bool,
     ) {
-        self.open(
-            "line",
-            &[
-                ("x1", x1),
-                ("y1", y1),
-                ("x2", x2),
-                ("y2", y2),
-                ("stroke-width", w),
-            ],
+        markup!(
+            &mut self.body,
+            "<line x1=\"",
+            x1,
+            "\" y1=\"",
+            y1,
+            "\" x2=\"",
+            x2,
+            "\" y2=\"",
+            y2,
+            "\" stroke-width=\"",
+            w,
+            "\" stroke=\"",
+            stroke,
+            if dash {
+                "\" stroke-dasharray=\"5 4\"/>"
+            } else {
+                "\"/>"
+            },
         );
-        self.attr("stroke", stroke);
-        if dash {
-            self.attr("stroke-dasharray", "5 4");
-        }
-        self.body.push_str("/>");
     }
 
     /// A line with a filled head at its end.
@@ -184,57 +195,81 @@ impl Svg {
         let base = (to.0 - ux * head, to.1 - uy * head);
         self.line(from, base, stroke, w, dash);
         let half = head * 0.45;
-        let points = [
-            to,
+        let (left, right) = (
             (base.0 - uy * half, base.1 + ux * half),
             (base.0 + uy * half, base.1 - ux * half),
-        ];
-        self.body.push_str("<polygon points=\"");
-        for (i, (x, y)) in points.into_iter().enumerate() {
-            if i > 0 {
-                self.body.push(' ');
-            }
-            push_fixed(&mut self.body, x, 1);
-            self.body.push(',');
-            push_fixed(&mut self.body, y, 1);
-        }
-        self.body.push('"');
-        self.attr("fill", stroke);
-        self.body.push_str("/>");
+        );
+        markup!(
+            &mut self.body,
+            "<polygon points=\"",
+            to.0,
+            ",",
+            to.1,
+            " ",
+            left.0,
+            ",",
+            left.1,
+            " ",
+            right.0,
+            ",",
+            right.1,
+            "\" fill=\"",
+            stroke,
+            "\"/>",
+        );
     }
 
     fn rect(&mut self, x: f64, y: f64, w: f64, h: f64, fill: &str, stroke: &str) {
-        self.open(
-            "rect",
-            &[
-                ("x", x),
-                ("y", y),
-                ("width", w.max(0.0)),
-                ("height", h.max(0.0)),
-            ],
+        markup!(
+            &mut self.body,
+            "<rect x=\"",
+            x,
+            "\" y=\"",
+            y,
+            "\" width=\"",
+            w.max(0.0),
+            "\" height=\"",
+            h.max(0.0),
+            "\" fill=\"",
+            fill,
+            "\" stroke=\"",
+            stroke,
+            "\"/>",
         );
-        self.attr("fill", fill);
-        self.attr("stroke", stroke);
-        self.body.push_str("/>");
     }
 
     fn circle(&mut self, (cx, cy): (f64, f64), r: f64, fill: &str, stroke: &str, dash: bool) {
-        self.open("circle", &[("cx", cx), ("cy", cy), ("r", r)]);
-        self.attr("fill", fill);
-        self.attr("stroke", stroke);
-        self.attr("stroke-width", "1.5");
-        if dash {
-            self.attr("stroke-dasharray", "4 3");
-        }
-        self.body.push_str("/>");
+        markup!(
+            &mut self.body,
+            "<circle cx=\"",
+            cx,
+            "\" cy=\"",
+            cy,
+            "\" r=\"",
+            r,
+            "\" fill=\"",
+            fill,
+            "\" stroke=\"",
+            stroke,
+            if dash {
+                "\" stroke-width=\"1.5\" stroke-dasharray=\"4 3\"/>"
+            } else {
+                "\" stroke-width=\"1.5\"/>"
+            },
+        );
     }
 
     fn path(&mut self, d: &str, stroke: &str, w: f64) {
-        self.open("path", &[("stroke-width", w)]);
-        self.attr("d", d);
-        self.attr("fill", "none");
-        self.attr("stroke", stroke);
-        self.body.push_str("/>");
+        markup!(
+            &mut self.body,
+            "<path stroke-width=\"",
+            w,
+            "\" d=\"",
+            d,
+            "\" fill=\"none\" stroke=\"",
+            stroke,
+            "\"/>",
+        );
     }
 
     /// Text at a point; `anchor` is start, middle or end. The text is
@@ -247,32 +282,39 @@ impl Svg {
         fill: &str,
         text: impl fmt::Display,
     ) {
-        self.open("text", &[("x", x), ("y", y), ("font-size", size)]);
-        self.attr("text-anchor", anchor);
-        self.attr("fill", fill);
-        self.body.push('>');
+        markup!(
+            &mut self.body,
+            "<text x=\"",
+            x,
+            "\" y=\"",
+            y,
+            "\" font-size=\"",
+            size,
+            "\" text-anchor=\"",
+            anchor,
+            "\" fill=\"",
+            fill,
+            "\">",
+        );
         let _ = write!(Escaping(&mut self.body), "{text}");
         self.body.push_str("</text>");
     }
 
     fn finish(self, id: &str, title: &str, desc: &str) -> String {
         let mut out = String::with_capacity(self.body.len() + 512 + title.len() + desc.len());
+        let (w, h) = (Fixed(self.width, 0), Fixed(self.height, 0));
         let _ = write!(
             out,
             "<svg xmlns=\"http://www.w3.org/2000/svg\" class=\"drawing\" viewBox=\"0 0 {w} {h}\" \
              width=\"{w}\" height=\"{h}\" role=\"img\" aria-labelledby=\"{id}-t {id}-d\" \
              font-family=\"system-ui, sans-serif\"><title id=\"{id}-t\">",
-            w = Fixed(self.width, 0),
-            h = Fixed(self.height, 0),
         );
         push_escaped(&mut out, title);
-        let _ = write!(out, "</title><desc id=\"{id}-d\">");
+        markup!(&mut out, "</title><desc id=\"", id, "-d\">");
         push_escaped(&mut out, desc);
         let _ = write!(
             out,
-            "</desc><rect width=\"{w}\" height=\"{h}\" fill=\"{PAPER}\"/>",
-            w = Fixed(self.width, 0),
-            h = Fixed(self.height, 0),
+            "</desc><rect width=\"{w}\" height=\"{h}\" fill=\"{PAPER}\"/>"
         );
         out.push_str(&self.body);
         out.push_str("</svg>");
