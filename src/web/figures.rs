@@ -133,6 +133,37 @@ impl Piece for f64 {
     }
 }
 
+/// A pen width or type size. The drawings use a dozen such constants,
+/// about a hundred times a page, so they are written from [`SIZES`] rather
+/// than formatted each time; any other value is formatted as a coordinate.
+struct Size(f64);
+
+/// The sizes the drawings use, as [`Fixed`]`(v, 1)` writes them (a test
+/// holds the table to that).
+const SIZES: [(f64, &str); 12] = [
+    (1.0, "1.0"),
+    (1.2, "1.2"),
+    (1.5, "1.5"),
+    (2.0, "2.0"),
+    (2.5, "2.5"),
+    (3.0, "3.0"),
+    (4.0, "4.0"),
+    (9.0, "9.0"),
+    (10.0, "10.0"),
+    (10.5, "10.5"),
+    (11.0, "11.0"),
+    (12.0, "12.0"),
+];
+
+impl Piece for Size {
+    fn put(self, out: &mut String) {
+        match SIZES.iter().find(|(v, _)| *v == self.0) {
+            Some((_, text)) => out.push_str(text),
+            None => push_fixed(out, self.0, 1),
+        }
+    }
+}
+
 /// Appends markup and numbers in turn, each markup piece a literal with
 /// the syntax around the numbers (`"<line x1=\""`, `"\" y1=\""`), so that
 /// it is copied as one block of known length.
@@ -172,7 +203,7 @@ impl Svg {
             "\" y2=\"",
             y2,
             "\" stroke-width=\"",
-            w,
+            Size(w),
             "\" stroke=\"",
             stroke,
             if dash {
@@ -263,7 +294,7 @@ impl Svg {
         markup!(
             &mut self.body,
             "<path stroke-width=\"",
-            w,
+            Size(w),
             "\" d=\"",
             d,
             "\" fill=\"none\" stroke=\"",
@@ -289,7 +320,7 @@ impl Svg {
             "\" y=\"",
             y,
             "\" font-size=\"",
-            size,
+            Size(size),
             "\" text-anchor=\"",
             anchor,
             "\" fill=\"",
@@ -939,6 +970,19 @@ fn spin_arrow(svg: &mut Svg, (cx, cy): (f64, f64), r: f64, spin: Spin) {
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    #[test]
+    fn the_size_table_writes_what_fixed_writes() {
+        for (v, text) in SIZES {
+            assert_eq!(Fixed(v, 1).to_string(), text);
+            let mut out = String::new();
+            Size(v).put(&mut out);
+            assert_eq!(out, text);
+        }
+        let mut out = String::new();
+        Size(7.25).put(&mut out);
+        assert_eq!(out, Fixed(7.25, 1).to_string());
+    }
     use crate::claim::{self, Format};
     use crate::report::{Figure, Finding, Verdict};
 
