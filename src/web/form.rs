@@ -416,10 +416,118 @@ fn insert(root: &mut toml::Table, path: &str, value: toml::Value) {
     }
 }
 
+/// The name-value pairs of an `application/x-www-form-urlencoded` body, as
+/// the WHATWG URL standard parses them (section 5.1): split on `&`, skip
+/// empty pieces, split each at its first `=`, `+` is a space, `%XX` a byte
+/// (a `%` without two hex digits stays), then UTF-8 with U+FFFD for what is
+/// not. One pass per part: the general decoder made three, with a String
+/// for each, and it was a twentieth of a verdict page under load.
+pub fn urlencoded_pairs(body: &[u8]) -> Vec<(String, String)> {
+    body.split(|&b| b == b'&')
+        .filter(|piece| !piece.is_empty())
+        .map(|piece| {
+            let (name, value) = match piece.iter().position(|&b| b == b'=') {
+                Some(at) => (&piece[..at], &piece[at + 1..]),
+                None => (piece, &piece[..0]),
+            };
+            (percent_decoded(name), percent_decoded(value))
+        })
+        .collect()
+}
+
+fn percent_decoded(part: &[u8]) -> String {
+    let hex = |b: u8| (b as char).to_digit(16);
+    let mut out = Vec::with_capacity(part.len());
+    let mut i = 0;
+    while i < part.len() {
+        // The run up to the next byte to decode, copied whole.
+        let run = part[i..]
+            .iter()
+            .position(|&b| b == b'%' || b == b'+')
+            .unwrap_or(part.len() - i);
+        out.extend_from_slice(&part[i..i + run]);
+        i += run;
+        match part.get(i) {
+            Some(b'+') => {
+                out.push(b' ');
+                i += 1;
+            }
+            Some(_) => match (
+                part.get(i + 1).and_then(|&b| hex(b)),
+                part.get(i + 2).and_then(|&b| hex(b)),
+            ) {
+                (Some(high), Some(low)) => {
+                    out.push((high * 16 + low) as u8);
+                    i += 3;
+                }
+                _ => {
+                    out.push(b'%');
+                    i += 1;
+                }
+            },
+            None => {}
+        }
+    }
+    match String::from_utf8(out) {
+        Ok(text) => text,
+        Err(e) => String::from_utf8_lossy(e.as_bytes()).into_owned(),
+    }
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;
     use crate::claim::{self, Format};
+
+    #[test]
+    fn urlencoded_bodies_decode_as_the_url_crates_form_parser_decodes_them() {
+        // form_urlencoded (the servo/rust-url implementation of the WHATWG
+        // parser) is the reference: every edge of `%`, `+`, `=` and `&`,
+        // bytes that are not UTF-8, and random mixes of them.
+        let mut bodies: Vec<Vec<u8>> = [
+            "",
+            "&",
+            "&&a=1&&",
+            "a",
+            "a=",
+            "=b",
+            "a=b=c",
+            "a+b=c+d",
+            "%",
+            "%4",
+            "%4g",
+            "%41",
+            "%e2%86%92",
+            "%E2%86",
+            "%ff%fe=%C3",
+            "x=%2",
+            "sheet=title+%3D+%22x%22%0A%5Bcraft%5D",
+            "caf\u{e9}=%c3%a9",
+            "%%41",
+            "+%2B+",
+        ]
+        .iter()
+        .map(|b| b.as_bytes().to_vec())
+        .collect();
+        let alphabet: &[u8] = b"%+=&aF9g\xc3\xa9\xff ";
+        let mut x: u64 = 0x2545_F491_4F6C_DD1D;
+        for _ in 0..3000 {
+            let mut body = Vec::new();
+            for _ in 0..(x % 24) {
+                x ^= x << 13;
+                x ^= x >> 7;
+                x ^= x << 17;
+                body.push(alphabet[(x % alphabet.len() as u64) as usize]);
+            }
+            bodies.push(body);
+        }
+        for body in bodies {
+            let expected: Vec<(String, String)> = form_urlencoded::parse(&body)
+                .map(|(k, v)| (k.into_owned(), v.into_owned()))
+                .collect();
+            assert_eq!(urlencoded_pairs(&body), expected, "{body:?}");
+        }
+    }
 
     fn values(pairs: &[(&str, &str)]) -> HashMap<String, String> {
         pairs

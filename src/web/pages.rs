@@ -3,10 +3,10 @@
 use std::collections::HashMap;
 
 use askama::Template;
+use axum::body::Bytes;
 use axum::extract::{FromRequest, Multipart, Path, Query, Request, State};
 use axum::http::{header, StatusCode, Uri};
 use axum::response::{Html, IntoResponse, Response};
-use axum::Form;
 
 use crate::claim::{self, demo};
 use crate::rules;
@@ -39,6 +39,8 @@ pub async fn index(
     let page = index_page(&state, FormView::with_sheet(sheet), picked);
     Ok(Html(page.render()?))
 }
+
+const FORM_TYPE: &str = "application/x-www-form-urlencoded";
 
 /// What the form sends: the pressed button (`from`), the sheet box or upload,
 /// and the fields.
@@ -100,10 +102,21 @@ impl<S: Send + Sync> FromRequest<S> for Submission {
                 sub.sheet = text;
             }
         } else {
-            let Form(pairs) = Form::<Vec<(String, String)>>::from_request(req, state)
+            let urlencoded = req
+                .headers()
+                .get(header::CONTENT_TYPE)
+                .and_then(|v| v.to_str().ok())
+                .and_then(|v| v.split(';').next())
+                .is_some_and(|v| v.trim().eq_ignore_ascii_case(FORM_TYPE));
+            if !urlencoded {
+                return Err(Error::BadRequest(format!(
+                    "Form requests must have `Content-Type: {FORM_TYPE}`"
+                )));
+            }
+            let body = Bytes::from_request(req, state)
                 .await
                 .map_err(|e| Error::from_status(e.status(), e.body_text()))?;
-            for (name, value) in pairs {
+            for (name, value) in form::urlencoded_pairs(&body) {
                 match name.as_str() {
                     "sheet" => sub.sheet = value,
                     "from" => sub.from = Some(value),
