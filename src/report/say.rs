@@ -79,32 +79,19 @@ macro_rules! say_to {
 }
 pub(crate) use say_to;
 
-impl Piece for str {
-    fn size(&self) -> usize {
-        self.len()
-    }
-    fn push_to(&self, out: &mut String) {
-        out.push_str(self);
-    }
+macro_rules! text_piece {
+    ($($t:ty),+) => {$(
+        impl Piece for $t {
+            fn size(&self) -> usize {
+                self.len()
+            }
+            fn push_to(&self, out: &mut String) {
+                out.push_str(self);
+            }
+        }
+    )+};
 }
-
-impl Piece for String {
-    fn size(&self) -> usize {
-        self.len()
-    }
-    fn push_to(&self, out: &mut String) {
-        out.push_str(self);
-    }
-}
-
-impl Piece for Cow<'_, str> {
-    fn size(&self) -> usize {
-        self.len()
-    }
-    fn push_to(&self, out: &mut String) {
-        out.push_str(self);
-    }
-}
+text_piece!(str, String, Cow<'_, str>);
 
 impl Piece for char {
     fn size(&self) -> usize {
@@ -180,6 +167,20 @@ where
             }
             item.push_to(out);
         }
+    }
+}
+
+/// The values at the three tiers, most generous first, as the assumptions
+/// list them: "1 / 0.75 / 0.45".
+pub struct PerTier<P>(pub [P; 3]);
+
+impl<P: Piece> Piece for PerTier<P> {
+    fn size(&self) -> usize {
+        self.0.iter().map(Piece::size).sum::<usize>() + 6
+    }
+    fn push_to(&self, out: &mut String) {
+        let [a, b, c] = &self.0;
+        say_to!(out, a, " / ", b, " / ", c);
     }
 }
 
@@ -317,8 +318,9 @@ pub fn push_sig3(out: &mut String, v: f64) {
 /// `v` (the standard library's shortest round trip), without an exponent.
 /// The nearest value with p decimals is n / 10^p; it reads back as `v`
 /// exactly when the division, correctly rounded, gives `v` again (n and
-/// 10^p are exact doubles). Values whose scaled digits pass 2^49, where the
-/// nearest integer could be missed, go to the standard formatter.
+/// 10^p are exact doubles), and it is what `push_fixed(v, p)` writes.
+/// Values whose scaled digits pass 2^49, where the nearest integer could be
+/// missed, go to the standard formatter.
 pub fn push_shortest(out: &mut String, v: f64) {
     const POW10: [f64; 18] = [
         1e0, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12, 1e13, 1e14, 1e15, 1e16,
@@ -334,33 +336,11 @@ pub fn push_shortest(out: &mut String, v: f64) {
             }
             let n = (scaled + 0.5) as u64;
             if n as f64 / unit == a {
-                if v.is_sign_negative() {
-                    out.push('-');
-                }
-                return push_decimal(out, n, places);
+                return push_fixed(out, v, places);
             }
         }
     }
     let _ = write!(out, "{v}");
-}
-
-/// Appends n / 10^places with exactly `places` decimals.
-fn push_decimal(out: &mut String, n: u64, places: usize) {
-    let mut digits = [b'0'; 24];
-    let mut at = digits.len();
-    let mut rest = n;
-    let mut written = 0;
-    while rest > 0 || written <= places {
-        if written == places && places > 0 {
-            at -= 1;
-            digits[at] = b'.';
-        }
-        at -= 1;
-        digits[at] = b'0' + (rest % 10) as u8;
-        rest /= 10;
-        written += 1;
-    }
-    out.extend(digits[at..].iter().map(|&d| char::from(d)));
 }
 
 #[cfg(test)]

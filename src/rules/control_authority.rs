@@ -23,7 +23,7 @@ use super::thrust_margin;
 use crate::catalog::tiers::{Tier, REACTIVE_TORQUE, THRUST_MISMATCH};
 use crate::claim::{Claim, Layout, Mount, Spin};
 use crate::physics::control::{self, Authority, Axis, Hover, Placement};
-use crate::report::say::{say, say_to, AndList, Piece};
+use crate::report::say::{say, say_to, AndList, PerTier, Piece};
 use crate::report::Sig3;
 use crate::report::{Figure, Finding, Verdict};
 
@@ -257,11 +257,7 @@ pub fn check(claim: &Claim) -> Finding {
     ));
     assumptions.push(say!(
         "Propeller drag torque per thrust ",
-        REACTIVE_TORQUE.at(Tier::PhysicalLimit),
-        " / ",
-        REACTIVE_TORQUE.at(Tier::BestPractice),
-        " / ",
-        REACTIVE_TORQUE.at(Tier::Typical),
+        PerTier(REACTIVE_TORQUE.values),
         " of the rotor diameter (",
         Sig3(an.diameter.get::<millimeter>()),
         " mm); ",

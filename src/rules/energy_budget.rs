@@ -23,7 +23,7 @@ use crate::catalog::{self, Chemistry, Drive};
 use crate::claim::{Claim, Layout};
 use crate::physics::atmosphere::Air;
 use crate::physics::{battery, rotor};
-use crate::report::say::say;
+use crate::report::say::{say, PerTier};
 use crate::report::Finding;
 use crate::report::Sig3;
 
@@ -267,33 +267,17 @@ pub fn check(claim: &Claim) -> Finding {
     ));
     assumptions.push(say!(
         "Figure of merit ",
-        tiers::figure_of_merit(Tier::PhysicalLimit, diameter),
-        " / ",
-        tiers::figure_of_merit(Tier::BestPractice, diameter),
-        " / ",
-        tiers::figure_of_merit(Tier::Typical, diameter),
+        PerTier(Tier::ALL.map(|t| tiers::figure_of_merit(t, diameter))),
         " for a ",
         Sig3(diameter.get::<uom::si::length::millimeter>()),
         " mm rotor; drive efficiency ",
-        Sig3(tiers::drive_efficiency(Tier::PhysicalLimit, frame.drive)),
-        " / ",
-        Sig3(tiers::drive_efficiency(Tier::BestPractice, frame.drive)),
-        " / ",
-        Sig3(tiers::drive_efficiency(Tier::Typical, frame.drive)),
+        PerTier(Tier::ALL.map(|t| Sig3(tiers::drive_efficiency(t, frame.drive)))),
         " (",
         frame.drive.id(),
         "); usable capacity ",
-        DEPTH_OF_DISCHARGE.at(Tier::PhysicalLimit),
-        " / ",
-        DEPTH_OF_DISCHARGE.at(Tier::BestPractice),
-        " / ",
-        DEPTH_OF_DISCHARGE.at(Tier::Typical),
+        PerTier(DEPTH_OF_DISCHARGE.values),
         "; avionics ",
-        AVIONICS_POWER.at(Tier::PhysicalLimit),
-        " / ",
-        AVIONICS_POWER.at(Tier::BestPractice),
-        " / ",
-        AVIONICS_POWER.at(Tier::Typical),
+        PerTier(AVIONICS_POWER.values),
         " W (physical limit / best practice / typical)."
     ));
     assumptions.push(

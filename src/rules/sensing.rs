@@ -19,7 +19,7 @@ use super::common::{self, fixed, per_tier};
 use crate::catalog::tiers::{Tier, ACCEL_BIAS, GYRO_DRIFT, LEVEL_ERROR, THRUST_MISMATCH};
 use crate::claim::{Claim, PositionSensor};
 use crate::physics::{body, control};
-use crate::report::say::{say, Joined};
+use crate::report::say::{say, Joined, PerTier};
 use crate::report::Sig3;
 use crate::report::{Figure, Finding, Verdict};
 
@@ -131,11 +131,7 @@ pub fn check(claim: &Claim) -> Finding {
     let mut assumptions = Vec::with_capacity(7);
     assumptions.push(say!(
         "Thrust mismatch ",
-        THRUST_MISMATCH.at(Tier::PhysicalLimit),
-        " / ",
-        THRUST_MISMATCH.at(Tier::BestPractice),
-        " / ",
-        THRUST_MISMATCH.at(Tier::Typical),
+        PerTier(THRUST_MISMATCH.values),
         " of one rotor's hover thrust (physical limit / best practice / typical); ",
         THRUST_MISMATCH.basis,
         "."
