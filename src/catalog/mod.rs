@@ -24,13 +24,17 @@ pub enum Basis {
 impl Basis {
     /// A short line for reports and the methods page.
     pub fn describe(&self) -> String {
-        match self {
-            Basis::Source(id) => {
-                let title = crate::sources::get(id).map(|s| s.title).unwrap_or(id);
-                format!("source: {title}")
-            }
-            Basis::CommonPractice(note) => format!("common practice: {note}"),
-            Basis::FromMemory(note) => format!("from memory: {note}"),
+        let (kind, note) = self.parts();
+        [kind, note].concat()
+    }
+
+    /// [`describe`](Basis::describe) in its two pieces, "source: " and the
+    /// source's title, for writers that append them to a longer line.
+    pub fn parts(&self) -> (&'static str, &'static str) {
+        match *self {
+            Basis::Source(id) => ("source: ", crate::sources::get(id).map_or(id, |s| s.title)),
+            Basis::CommonPractice(note) => ("common practice: ", note),
+            Basis::FromMemory(note) => ("from memory: ", note),
         }
     }
 }

@@ -478,55 +478,57 @@ impl Faces {
         let share = hover.weight.get::<newton>() / (alive.max(1) as f64);
         let tmax = hover.rotor_thrust.get::<newton>();
         let actuators = &self.unit.actuators;
-        // Each column's scale (1 for thrust, the hover share for tilt), bounds and half range.
-        let scale: Vec<f64> = actuators
-            .iter()
-            .map(|a| if a.tilt { share } else { 1.0 })
-            .collect();
-        let hi: Vec<f64> = actuators
-            .iter()
-            .map(|a| match (lost.contains(&a.rotor), a.tilt) {
+        // Each column's scale (1 for thrust, the hover share for tilt) and bounds.
+        let bounds = |a: &Actuator| {
+            let scale = if a.tilt { share } else { 1.0 };
+            let hi = match (lost.contains(&a.rotor), a.tilt) {
                 (true, _) => 0.0,
                 (false, false) => tmax,
                 (false, true) => placements[a.rotor]
                     .tilt
                     .map_or(0.0, |t| t.range.sin().value),
-            })
-            .collect();
-        let lo: Vec<f64> = actuators
-            .iter()
-            .zip(&hi)
-            .map(|(a, h)| if a.tilt { -h } else { 0.0 })
-            .collect();
+            };
+            let lo = if a.tilt { -hi } else { 0.0 };
+            (scale, lo, hi)
+        };
         let g = Vector4::new(hover.weight.get::<newton>(), 0.0, 0.0, 0.0);
         let b = &self.unit.matrix;
-        let centre: Vector4<f64> = (0..b.ncols())
-            .map(|j| b.column(j) * (scale[j] * (lo[j] + hi[j]) / 2.0))
-            .sum();
+        // The centre of the attainable set, and each column's half range and
+        // whether it can move at all: one pass, one buffer.
+        let mut centre = Vector4::zeros();
+        let mut half = Vec::with_capacity(actuators.len());
+        for (j, a) in actuators.iter().enumerate() {
+            let (scale, lo, hi) = bounds(a);
+            centre += b.column(j) * (scale * (lo + hi) / 2.0);
+            half.push((scale * (hi - lo) / 2.0, hi > lo));
+        }
         let offset = g - centre;
-        let half: Vec<f64> = (0..b.ncols())
-            .map(|j| scale[j] * (hi[j] - lo[j]) / 2.0)
-            .collect();
-        let active = |j: usize| hi[j] > lo[j];
         let mut min = f64::INFINITY;
         let mut faces = 0usize;
         for f in self
             .faces
             .iter()
-            .filter(|f| f.spanned.iter().all(|&j| active(j)))
+            .filter(|f| f.spanned.iter().all(|&j| half[j].1))
         {
-            let support: f64 = f.dots.iter().zip(&half).map(|(d, r)| d * r).sum();
+            let support: f64 = f.dots.iter().zip(&half).map(|(d, r)| d * r.0).sum();
             min = min.min(support - f.xi.dot(&offset).abs());
             faces += 1;
         }
         if faces == 0 {
             // Below rank 3 the flat directions need an SVD: the general routine does it.
+            let (scale, (lo, hi)): (Vec<f64>, (Vec<f64>, Vec<f64>)) = actuators
+                .iter()
+                .map(|a| {
+                    let (scale, lo, hi) = bounds(a);
+                    (scale, (lo, hi))
+                })
+                .unzip();
             let scaled = Matrix4xX::from_fn(b.ncols(), |r, c| b[(r, c)] * scale[c]);
             return acai(&scaled, &lo, &hi, g);
         }
         // Snap round-off to the exact zero of a hover point on a face (e.g. a lost rotor).
         let size: f64 = (0..b.ncols())
-            .map(|j| b.column(j).norm() * half[j])
+            .map(|j| b.column(j).norm() * half[j].0)
             .sum::<f64>()
             + offset.norm();
         if min.abs() <= TOL * size {

@@ -6,6 +6,7 @@
 
 pub mod json;
 pub mod numbers;
+pub mod say;
 pub mod scan;
 mod text;
 

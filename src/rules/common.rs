@@ -63,20 +63,20 @@ pub fn fixed(
     }
 }
 
-/// One figure per tier from `value(tier)`. A tier whose value is unbounded
-/// (a perfect sensor never drifts) gets no figure: reports hold finite numbers only.
+/// One figure per tier from `value(tier)`, for a finding's list of figures
+/// (sized beforehand for all of them). A tier whose value is unbounded (a
+/// perfect sensor never drifts) gets no figure: reports hold finite numbers only.
 pub fn per_tier(
     key: &'static str,
     label: &'static str,
     unit: &'static str,
     mut value: impl FnMut(Tier) -> f64,
-) -> Vec<Figure> {
+) -> impl Iterator<Item = Figure> {
     Tier::ALL
         .into_iter()
-        .map(|t| (t, value(t)))
+        .map(move |t| (t, value(t)))
         .filter(|(_, v)| v.is_finite())
-        .map(|(t, v)| tiered(key, label, t, v, unit))
-        .collect()
+        .map(move |(t, v)| tiered(key, label, t, v, unit))
 }
 
 /// The rotor diameter: stated, else the middle of the motor class's usual range.

@@ -11,6 +11,7 @@
 //! at best practice; at the typical tier, ACAI above the moment of a typical
 //! thrust mismatch between rotors.
 
+use std::borrow::Cow;
 use std::cell::OnceCell;
 
 use serde::Serialize;
@@ -22,6 +23,7 @@ use super::thrust_margin;
 use crate::catalog::tiers::{Tier, REACTIVE_TORQUE, THRUST_MISMATCH};
 use crate::claim::{Claim, Layout, Mount, Spin};
 use crate::physics::control::{self, Authority, Axis, Hover, Placement};
+use crate::report::say::{say, say_to, AndList, PerTier, Piece};
 use crate::report::Sig3;
 use crate::report::{Figure, Finding, Verdict};
 
@@ -48,8 +50,9 @@ struct Analysis {
     authority: Authority,
     /// Per-rotor maximum thrust per tier, when the sheet lets it be estimated.
     thrust: Option<[Force; 3]>,
-    /// The attainable set's face normals per tier, worked out on first use.
-    faces: OnceCell<[control::Faces; 3]>,
+    /// The attainable set's face normals, worked out on first use: one set per
+    /// distinct drag-torque ratio (the generous tiers share theirs), and the set of each tier.
+    faces: OnceCell<(Vec<control::Faces>, [usize; 3])>,
 }
 
 /// Sets of lost rotors (0-based), with the ACAI at each tier.
@@ -66,10 +69,22 @@ impl Analysis {
             rotor_thrust: self.thrust?[t as usize],
             torque_ratio: self.torque_ratio(t),
         };
-        let faces = self.faces.get_or_init(|| {
-            Tier::ALL.map(|t| control::Faces::new(&self.placements, self.torque_ratio(t)))
+        let (faces, of_tier) = self.faces.get_or_init(|| {
+            let mut ratios: Vec<Length> = Vec::with_capacity(3);
+            let of_tier = Tier::ALL.map(|t| {
+                let k = self.torque_ratio(t);
+                ratios.iter().position(|&r| r == k).unwrap_or_else(|| {
+                    ratios.push(k);
+                    ratios.len() - 1
+                })
+            });
+            let faces = ratios
+                .into_iter()
+                .map(|k| control::Faces::new(&self.placements, k))
+                .collect();
+            (faces, of_tier)
         });
-        Some(faces[t as usize].hover_acai(&self.placements, &hover, lost))
+        Some(faces[of_tier[t as usize]].hover_acai(&self.placements, &hover, lost))
     }
 
     /// The margin the ACAI must clear: none at the generous tiers; at the typical
@@ -139,15 +154,12 @@ fn analyse(claim: &Claim) -> Result<Analysis, &'static str> {
     let Some((diameter, _)) = common::rotor_diameter(claim) else {
         return Err("the rotor diameter (rotors.diameter) or a motor class (rotors.motor)");
     };
-    let weight = common::weight(claim, &common::air(claim));
+    let air = common::air(claim);
+    let weight = common::weight(claim, &air);
     let share = weight / placements.len() as f64;
     let k = diameter * REACTIVE_TORQUE.at(Tier::Typical);
     let authority = control::authority(&control::effectiveness(&placements, share, k).matrix);
-    let thrust = Tier::ALL.map(|t| thrust_margin::rotor_thrust(claim, t));
-    let thrust = match thrust {
-        [Some(a), Some(b), Some(c)] => Some([a, b, c]),
-        _ => None,
-    };
+    let thrust = thrust_margin::estimate(claim, &air).map(|e| e.available);
     Ok(Analysis {
         placements,
         weight,
@@ -167,52 +179,61 @@ fn tier_phrase(t: Tier) -> &'static str {
     }
 }
 
-/// "a", "a and b", "a, b and c".
-fn and_list(items: &[String]) -> String {
-    match items {
-        [] => String::new(),
-        [one] => one.clone(),
-        [init @ .., last] => format!("{} and {last}", init.join(", ")),
+/// Axes by their ids: "roll", "roll and yaw", "roll, pitch and yaw".
+fn axes(list: &[Axis]) -> AndList<impl Iterator<Item = &'static str> + Clone + '_> {
+    AndList(list.iter().map(|a| a.id()))
+}
+
+/// Rotor numbers as the report shows them, from 1: "rotor 2", "rotors 1 and 4".
+struct RotorList<'a>(&'a [usize]);
+
+impl Piece for RotorList<'_> {
+    fn size(&self) -> usize {
+        7 + 6 * self.0.len()
+    }
+    fn push_to(&self, out: &mut String) {
+        out.push_str(if self.0.len() > 1 {
+            "rotors "
+        } else {
+            "rotor "
+        });
+        AndList(self.0.iter().map(|i| i + 1)).push_to(out);
     }
 }
 
-fn axes(list: &[Axis]) -> String {
-    and_list(&list.iter().map(|a| a.id().to_string()).collect::<Vec<_>>())
-}
-
-/// Rotor numbers as the report shows them, from 1.
-fn rotor_list(set: &[usize]) -> String {
-    let names: Vec<String> = set.iter().map(|i| (i + 1).to_string()).collect();
-    format!(
-        "rotor{} {}",
-        if set.len() > 1 { "s" } else { "" },
-        and_list(&names)
-    )
-}
-
 /// What would give a craft the axes it lacks.
-fn fix_for_rank(claim: &Claim, a: &Authority) -> String {
+fn fix_for_rank(claim: &Claim, a: &Authority) -> &'static str {
     let r = &claim.rotors;
     let lacks = |x: Axis| a.lacking.contains(&x);
     if lacks(Axis::Pitch) && r.mount == Mount::Tilting && r.height.get::<millimeter>() == 0.0 {
-        "its tilting rotors mounted above the centre of mass (rotors.height), so that tilting them fore and aft pitches the craft".to_string()
+        "its tilting rotors mounted above the centre of mass (rotors.height), so that tilting them fore and aft pitches the craft"
     } else if lacks(Axis::Pitch) || lacks(Axis::Roll) {
-        "rotors that tilt fore and aft on hinges along their arms, mounted above the centre of mass (as on a bicopter); or four rotors in an X with alternating spins".to_string()
+        "rotors that tilt fore and aft on hinges along their arms, mounted above the centre of mass (as on a bicopter); or four rotors in an X with alternating spins"
     } else {
-        "a yaw servo that tilts one rotor sideways (as on a tricopter); or rotors of both spin directions around the centre of mass".to_string()
+        "a yaw servo that tilts one rotor sideways (as on a tricopter); or rotors of both spin directions around the centre of mass"
     }
 }
 
 /// Why axes are missing, in words.
-fn why_rank(a: &Authority) -> String {
-    let mut why = Vec::new();
-    if !a.unmoved.is_empty() {
-        why.push(format!("nothing on it makes a {} moment", axes(&a.unmoved)));
+struct WhyRank<'a>(&'a Authority);
+
+impl Piece for WhyRank<'_> {
+    fn size(&self) -> usize {
+        80
     }
-    if a.tied.len() > 1 {
-        why.push(format!("{} share the same inputs", axes(&a.tied)));
+    fn push_to(&self, out: &mut String) {
+        let a = self.0;
+        let unmoved = !a.unmoved.is_empty();
+        if unmoved {
+            say_to!(out, "nothing on it makes a ", axes(&a.unmoved), " moment");
+        }
+        if a.tied.len() > 1 {
+            if unmoved {
+                out.push_str(", and ");
+            }
+            say_to!(out, axes(&a.tied), " share the same inputs");
+        }
     }
-    why.join(", and ")
 }
 
 pub fn check(claim: &Claim) -> Finding {
@@ -228,21 +249,25 @@ pub fn check(claim: &Claim) -> Finding {
         a.rank as f64,
         "1",
     );
-    let mut assumptions = vec![
-        format!(
-            "Rotor positions from the {} layout; body axes x forward, y left, z up; rotors numbered clockwise from the nose seen from above.",
-            claim.rotors.layout.map_or("stated", Layout::id)
-        ),
-        format!(
-            "Propeller drag torque per thrust {} / {} / {} of the rotor diameter ({} mm); {}.",
-            REACTIVE_TORQUE.at(Tier::PhysicalLimit),
-            REACTIVE_TORQUE.at(Tier::BestPractice),
-            REACTIVE_TORQUE.at(Tier::Typical),
-            Sig3(an.diameter.get::<millimeter>()),
-            REACTIVE_TORQUE.basis.describe()
-        ),
-        "Tilt actuators linearised at hover, each rotor carrying an equal share of the weight.".to_string(),
-    ];
+    let mut assumptions = Vec::with_capacity(4);
+    assumptions.push(say!(
+        "Rotor positions from the ",
+        claim.rotors.layout.map_or("stated", Layout::id),
+        " layout; body axes x forward, y left, z up; rotors numbered clockwise from the nose seen from above."
+    ));
+    assumptions.push(say!(
+        "Propeller drag torque per thrust ",
+        PerTier(REACTIVE_TORQUE.values),
+        " of the rotor diameter (",
+        Sig3(an.diameter.get::<millimeter>()),
+        " mm); ",
+        REACTIVE_TORQUE.basis,
+        "."
+    ));
+    assumptions.push(
+        "Tilt actuators linearised at hover, each rotor carrying an equal share of the weight."
+            .to_string(),
+    );
     let sources = vec!["du-2015", "statics"];
 
     // 1. Rank: an axis no actuator can command cannot be held at any thrust.
@@ -250,20 +275,26 @@ pub fn check(claim: &Claim) -> Finding {
         return Finding {
             rule: ID,
             verdict: Verdict::Impossible,
-            headline: format!(
-                "Its actuators cannot command {} independently: {}. Without control of every axis it cannot hold a hover.",
+            headline: say!(
+                "Its actuators cannot command ",
                 axes(&a.lacking),
-                why_rank(a)
+                " independently: ",
+                WhyRank(a),
+                ". Without control of every axis it cannot hold a hover."
             ),
             figures: vec![rank],
-            would_take: format!("It would take {}.", fix_for_rank(claim, a)),
+            would_take: say!("It would take ", fix_for_rank(claim, a), "."),
             assumptions,
             sources,
         };
     }
     let Some(thrust) = an.thrust else {
         let mut f = Finding::not_assessed(ID, NEEDS_THRUST);
-        f.headline = format!("Its actuators can command all four axes, but the margin is not assessed: the sheet does not give {NEEDS_THRUST}.");
+        f.headline = say!(
+            "Its actuators can command all four axes, but the margin is not assessed: the sheet does not give ",
+            NEEDS_THRUST,
+            "."
+        );
         f.figures.push(rank);
         return f;
     };
@@ -285,7 +316,11 @@ pub fn check(claim: &Claim) -> Finding {
     let table = an.failures(searched);
     if claimed > searched || (claimed > 0 && table.is_none()) {
         let mut f = Finding::not_assessed(ID, "a craft small enough to search every combination of lost rotors (up to four lost, about 16 rotors)");
-        f.headline = format!("Not assessed: the claim to survive {claimed} lost rotors needs more combinations searched than this screen does.");
+        f.headline = say!(
+            "Not assessed: the claim to survive ",
+            claimed,
+            " lost rotors needs more combinations searched than this screen does."
+        );
         f.would_take = SEARCH_LIMIT.to_string();
         f.figures.push(rank);
         return f;
@@ -301,7 +336,9 @@ pub fn check(claim: &Claim) -> Finding {
     let fails_at = common::first_failure(passes);
     let verdict = Verdict::failing_at(fails_at);
 
-    let mut figures = vec![rank];
+    // The rank, the margin, and per tier the ACAI and the worst of each failure size.
+    let mut figures = Vec::with_capacity(2 + 3 * (1 + LOST_KEYS.len()));
+    figures.push(rank);
     figures.extend(per_tier(
         "acai",
         "Available control authority index, intact (N and N m)",
@@ -324,15 +361,16 @@ pub fn check(claim: &Claim) -> Finding {
     for (size, key) in LOST_KEYS.iter().enumerate().map(|(i, k)| (i + 1, *k)) {
         for t in Tier::ALL {
             if let Some((s, v)) = worst(size, t) {
-                let label = format!(
-                    "ACAI with the worst {} lost ({})",
-                    if size == 1 {
-                        "rotor".to_string()
-                    } else {
-                        format!("{size} rotors")
-                    },
-                    rotor_list(s)
-                );
+                let label = match size {
+                    1 => say!("ACAI with the worst rotor lost (", RotorList(s), ")"),
+                    _ => say!(
+                        "ACAI with the worst ",
+                        size,
+                        " rotors lost (",
+                        RotorList(s),
+                        ")"
+                    ),
+                };
                 figures.push(tiered(key, label, t, v[t as usize], "N, N m"));
             }
         }
@@ -346,69 +384,93 @@ pub fn check(claim: &Claim) -> Finding {
     let intact_fails = |t: Tier| intact[t as usize] <= an.margin(t, &[]);
     let (headline, would_take) = match fails_at {
         Some(t) if intact_fails(t) && !lifts(t) => (
-            format!("Its rotors cannot lift it even at full thrust ({}), so nothing is left to steer with (see thrust-margin).", tier_phrase(t)),
+            say!(
+                "Its rotors cannot lift it even at full thrust (",
+                tier_phrase(t),
+                "), so nothing is left to steer with (see thrust-margin)."
+            ),
             "It would take more thrust per rotor or more rotors (see thrust-margin).".to_string(),
         ),
         Some(Tier::Typical) if intact[Tier::Typical as usize] <= 0.0 => (
-            format!(
-                "With typical rotors it cannot make every moment a hover needs (ACAI {}); only better-than-typical ones give it control.",
-                at(Tier::Typical)
+            say!(
+                "With typical rotors it cannot make every moment a hover needs (ACAI ",
+                at(Tier::Typical),
+                "); only better-than-typical ones give it control."
             ),
             "It would take rotors with more thrust to spare (hovering well below full thrust), or longer arms.".to_string(),
         ),
         Some(Tier::Typical) if intact_fails(Tier::Typical) => (
-            format!(
-                "Its control margin in hover (ACAI {} with typical rotors) is smaller than the {} N m of a typical {} % thrust mismatch between rotors: a worn propeller or a gust could tip it.",
+            say!(
+                "Its control margin in hover (ACAI ",
                 at(Tier::Typical),
+                " with typical rotors) is smaller than the ",
                 Sig3(an.margin(Tier::Typical, &[])),
-                (100.0 * THRUST_MISMATCH.at(Tier::Typical)).round()
+                " N m of a typical ",
+                (100.0 * THRUST_MISMATCH.at(Tier::Typical)).round(),
+                " % thrust mismatch between rotors: a worn propeller or a gust could tip it."
             ),
             "It would take rotors with more thrust to spare (hovering well below full thrust), or longer arms.".to_string(),
         ),
         Some(t) if intact_fails(t) => (
-            format!(
-                "Even at full thrust from {} rotors it cannot make every moment a hover needs (ACAI {} {}).",
+            say!(
+                "Even at full thrust from ",
                 if t == Tier::PhysicalLimit { "perfect" } else { "the best" },
+                " rotors it cannot make every moment a hover needs (ACAI ",
                 at(t),
-                tier_phrase(t)
+                " ",
+                tier_phrase(t),
+                ")."
             ),
             "It would take rotors with more thrust to spare, longer arms, or rotors of both spin directions spread around the centre of mass.".to_string(),
         ),
         Some(t) => {
-            let (set, v) = first_bad_set(t).map_or((Vec::new(), 0.0), |(s, v)| (s.clone(), v[t as usize]));
+            let (set, v) = first_bad_set(t).map_or((&[][..], 0.0), |(s, v)| (&s[..], v[t as usize]));
             (
-                format!(
-                    "It is said to keep flying after losing {claimed} rotor{}, but with {} lost the rest {} (ACAI {} {}).",
-                    if claimed > 1 { "s" } else { "" },
-                    rotor_list(&set),
+                say!(
+                    "It is said to keep flying after losing ",
+                    claimed,
+                    if claimed > 1 { " rotors" } else { " rotor" },
+                    ", but with ",
+                    RotorList(set),
+                    " lost the rest ",
                     if v <= 0.0 { "cannot make every moment a hover needs" } else { "have too little control to spare" },
+                    " (ACAI ",
                     Sig3(v),
-                    tier_phrase(t)
+                    " ",
+                    tier_phrase(t),
+                    ")."
                 ),
                 "It would take six or more rotors with thrust to spare and a failure-tolerant spin pattern (for six, P P N N P N: Du et al. 2015), or no claim of rotor-failure tolerance.".to_string(),
             )
         }
         None => {
             let single = worst(1, Tier::Typical);
-            let after = match (claimed, single) {
-                (0, Some((s, v))) if v[2] <= 0.0 => format!(" Losing {} would leave it without control.", rotor_list(s)),
-                (0, Some(_)) => " It could keep flying after losing any one rotor.".to_string(),
-                (k, _) if k > 0 => format!(" It keeps control after losing any {k}."),
-                _ => String::new(),
+            let after: Cow<str> = match (claimed, single) {
+                (0, Some((s, v))) if v[2] <= 0.0 => {
+                    say!(" Losing ", RotorList(s), " would leave it without control.").into()
+                }
+                (0, Some(_)) => " It could keep flying after losing any one rotor.".into(),
+                (k, _) if k > 0 => say!(" It keeps control after losing any ", k, ".").into(),
+                _ => "".into(),
             };
             (
-                format!(
-                    "Its rotors can command thrust, roll, pitch and yaw with margin (ACAI {} with typical rotors, against {} N m of a typical thrust mismatch).{after}",
+                say!(
+                    "Its rotors can command thrust, roll, pitch and yaw with margin (ACAI ",
                     at(Tier::Typical),
-                    Sig3(an.margin(Tier::Typical, &[]))
+                    " with typical rotors, against ",
+                    Sig3(an.margin(Tier::Typical, &[])),
+                    " N m of a typical thrust mismatch).",
+                    after
                 ),
                 "Nothing: its actuators hold a hover with control to spare.".to_string(),
             )
         }
     };
-    assumptions.push(format!(
-        "Rotor thrust between zero and the thrust-margin estimate at each tier; a lost rotor gives none. Failure sets searched: up to {searched} rotor{} lost at once.",
-        if searched == 1 { "" } else { "s" }
+    assumptions.push(say!(
+        "Rotor thrust between zero and the thrust-margin estimate at each tier; a lost rotor gives none. Failure sets searched: up to ",
+        searched,
+        if searched == 1 { " rotor" } else { " rotors" },
+        " lost at once."
     ));
     Finding {
         rule: ID,

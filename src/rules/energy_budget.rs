@@ -17,12 +17,13 @@ use uom::si::{
 };
 
 use super::common::{self, fixed, per_tier};
-use super::thrust_margin;
+use super::thrust_margin::{self, Lift};
 use crate::catalog::tiers::{self, Tier, AVIONICS_POWER, DEPTH_OF_DISCHARGE};
 use crate::catalog::{self, Chemistry, Drive};
 use crate::claim::{Claim, Layout};
 use crate::physics::atmosphere::Air;
 use crate::physics::{battery, rotor};
+use crate::report::say::{say, PerTier};
 use crate::report::Finding;
 use crate::report::Sig3;
 
@@ -127,9 +128,14 @@ pub fn check(claim: &Claim) -> Finding {
     let verdict = common::verdict_of(|t| time_ok(t) && specific_ok(t) && current_ok(t));
 
     let minutes = |t: Time| t.get::<minute>();
-    let mut figures = per_tier("hover_power", "Electrical power to hover", "W", |t| {
-        power[t as usize].get::<watt>()
-    });
+    // Five kinds of figure per tier and four fixed ones at most.
+    let mut figures = Vec::with_capacity(19);
+    figures.extend(per_tier(
+        "hover_power",
+        "Electrical power to hover",
+        "W",
+        |t| power[t as usize].get::<watt>(),
+    ));
     figures.extend(per_tier(
         "usable_energy",
         "Usable battery energy",
@@ -196,73 +202,87 @@ pub fn check(claim: &Claim) -> Finding {
 
     let failed_at = common::first_failure(|t| time_ok(t) && specific_ok(t) && current_ok(t));
     let headline = match failed_at {
-        Some(t) if !specific_ok(t) => format!(
-            "The battery is said to hold {} Wh/kg; {} cells reach at most about {} Wh/kg {}.",
+        Some(t) if !specific_ok(t) => say!(
+            "The battery is said to hold ",
             Sig3(pack_specific.unwrap_or(0.0)),
+            " Wh/kg; ",
             chem.label,
+            " cells reach at most about ",
             Sig3(specific_energy(chem, t)),
+            " Wh/kg ",
             match t {
                 Tier::PhysicalLimit => "even in theory",
                 Tier::BestPractice => "at the very best",
                 Tier::Typical => "in ordinary packs",
-            }
+            },
+            "."
         ),
-        Some(t) if !time_ok(t) => format!(
-            "{} this battery lasts about {} min in hover; the claim is {} min.",
+        Some(t) if !time_ok(t) => say!(
             match t {
                 Tier::PhysicalLimit => "Even with perfect rotors and motors,",
                 Tier::BestPractice => "With the best hardware of its class,",
                 Tier::Typical => "With typical parts,",
             },
+            " this battery lasts about ",
             Sig3(minutes(endurance[t as usize])),
-            Sig3(claim.claim.flight_time.map_or(0.0, minutes))
+            " min in hover; the claim is ",
+            Sig3(claim.claim.flight_time.map_or(0.0, minutes)),
+            " min."
         ),
-        Some(t) => format!(
-            "Hovering draws {} C from the battery, above its {} C rating ({}).",
+        Some(t) => say!(
+            "Hovering draws ",
             Sig3(c_rate[t as usize]),
+            " C from the battery, above its ",
             Sig3(rating),
-            t.label()
+            " C rating (",
+            t.label(),
+            ")."
         ),
-        None => format!(
-            "The battery gives about {} min of hover with typical parts{}.",
+        None => say!(
+            "The battery gives about ",
             Sig3(minutes(endurance[Tier::Typical as usize])),
-            match claim.claim.flight_time {
-                Some(ft) => format!(", enough for the claimed {} min", Sig3(minutes(ft))),
-                None => String::new(),
-            }
+            " min of hover with typical parts",
+            claim.claim.flight_time.map(|ft| (
+                ", enough for the claimed ",
+                Sig3(minutes(ft)),
+                " min"
+            )),
+            "."
         ),
     };
 
     let would_take = would_take(
         claim, &frame, chem, airframe, pack_mass, pack_v, &time_ok, ceiling,
     );
-    let mut assumptions = vec![
-        format!(
-            "{} cell(s) of {} at {} V nominal; {}.",
-            bat.cells,
-            chem.label,
-            chem.nominal_v,
-            chem.basis.describe()
-        ),
-        format!(
-            "Figure of merit {} / {} / {} for a {} mm rotor; drive efficiency {} / {} / {} ({}); usable capacity {} / {} / {}; avionics {} / {} / {} W (physical limit / best practice / typical).",
-            tiers::figure_of_merit(Tier::PhysicalLimit, diameter),
-            tiers::figure_of_merit(Tier::BestPractice, diameter),
-            tiers::figure_of_merit(Tier::Typical, diameter),
-            Sig3(diameter.get::<uom::si::length::millimeter>()),
-            Sig3(tiers::drive_efficiency(Tier::PhysicalLimit, frame.drive)),
-            Sig3(tiers::drive_efficiency(Tier::BestPractice, frame.drive)),
-            Sig3(tiers::drive_efficiency(Tier::Typical, frame.drive)),
-            frame.drive.id(),
-            DEPTH_OF_DISCHARGE.at(Tier::PhysicalLimit),
-            DEPTH_OF_DISCHARGE.at(Tier::BestPractice),
-            DEPTH_OF_DISCHARGE.at(Tier::Typical),
-            AVIONICS_POWER.at(Tier::PhysicalLimit),
-            AVIONICS_POWER.at(Tier::BestPractice),
-            AVIONICS_POWER.at(Tier::Typical),
-        ),
+    let mut assumptions = Vec::with_capacity(9);
+    assumptions.push(say!(
+        bat.cells,
+        " cell(s) of ",
+        chem.label,
+        " at ",
+        chem.nominal_v,
+        " V nominal; ",
+        chem.basis,
+        "."
+    ));
+    assumptions.push(say!(
+        "Figure of merit ",
+        PerTier(Tier::ALL.map(|t| tiers::figure_of_merit(t, diameter))),
+        " for a ",
+        Sig3(diameter.get::<uom::si::length::millimeter>()),
+        " mm rotor; drive efficiency ",
+        PerTier(Tier::ALL.map(|t| Sig3(tiers::drive_efficiency(t, frame.drive)))),
+        " (",
+        frame.drive.id(),
+        "); usable capacity ",
+        PerTier(DEPTH_OF_DISCHARGE.values),
+        "; avionics ",
+        PerTier(AVIONICS_POWER.values),
+        " W (physical limit / best practice / typical)."
+    ));
+    assumptions.push(
         "Hover only, in still air: climbing, manoeuvring and wind all cost more.".to_string(),
-    ];
+    );
     if bat.chemistry.is_none() {
         assumptions.push("Chemistry taken as LiPo (battery.chemistry not given).".to_string());
     }
@@ -273,15 +293,17 @@ pub fn check(claim: &Claim) -> Finding {
         assumptions.push("Drive taken as brushless (rotors.drive not given).".to_string());
     }
     if bat.mass.is_none() {
-        assumptions.push(format!(
-            "Battery mass not given: taken as {} g from the chemistry's ordinary specific energy.",
-            Sig3(pack_mass.get::<gram>())
+        assumptions.push(say!(
+            "Battery mass not given: taken as ",
+            Sig3(pack_mass.get::<gram>()),
+            " g from the chemistry's ordinary specific energy."
         ));
     }
     if bat.max_discharge.is_none() {
-        assumptions.push(format!(
-            "Discharge rating not given: {} C, ordinary for the chemistry.",
-            rating
+        assumptions.push(say!(
+            "Discharge rating not given: ",
+            rating,
+            " C, ordinary for the chemistry."
         ));
     }
     if claim.claim.flight_time.is_none() {
@@ -330,11 +352,14 @@ fn would_take(
     };
     let e = specific_energy(chem, Tier::Typical);
     if times[Tier::Typical as usize] < ft {
-        return format!(
-            "No {} battery makes it with typical parts: the longest hover for this airframe is about {} min, with a {} g battery. Lighter parts or larger rotors are needed.",
+        return say!(
+            "No ",
             chem.id,
+            " battery makes it with typical parts: the longest hover for this airframe is about ",
             Sig3(times[Tier::Typical as usize].get::<minute>()),
-            Sig3(best_mass.get::<gram>())
+            " min, with a ",
+            Sig3(best_mass.get::<gram>()),
+            " g battery. Lighter parts or larger rotors are needed."
         );
     }
     // Endurance rises with battery mass up to twice the airframe: bisect on [current, 2 m0].
@@ -351,22 +376,25 @@ fn would_take(
     let capacity: ElectricCharge = Energy::new::<watt_hour>(e * hi.get::<kilogram>()) / pack_v;
     let take_off = airframe + hi;
     // The heavier craft must still be lifted: say so when the rotors would fall short.
-    let lift_note = thrust_margin::estimate(claim, &frame.air)
+    let short_of_thrust = thrust_margin::estimate(claim, &frame.air)
         .map(|est| est.available[Tier::Typical as usize] * (f64::from(claim.rotors.count) * 0.7))
-        .filter(|hover_limit| take_off * frame.air.gravity > *hover_limit)
-        .map(|hover_limit| {
-            format!(
-                "; the rotors then need more thrust too: they hover at most {} at 70 % of typical thrust",
-                thrust_margin::lift(hover_limit)
-            )
-        })
-        .unwrap_or_default();
-    format!(
-        "A battery of about {} mAh at this voltage ({} g of ordinary {} cells, {} g take-off mass){lift_note}.",
+        .filter(|hover_limit| take_off * frame.air.gravity > *hover_limit);
+    say!(
+        "A battery of about ",
         Sig3(capacity.get::<milliampere_hour>()),
+        " mAh at this voltage (",
         Sig3(hi.get::<gram>()),
+        " g of ordinary ",
         chem.id,
-        Sig3(take_off.get::<gram>())
+        " cells, ",
+        Sig3(take_off.get::<gram>()),
+        " g take-off mass)",
+        short_of_thrust.map(|hover_limit| (
+            "; the rotors then need more thrust too: they hover at most ",
+            Lift(hover_limit),
+            " at 70 % of typical thrust"
+        )),
+        "."
     )
 }
 

@@ -7,6 +7,8 @@
 //! human reaction time for a pilot; for hands-free flight, attitude, height and
 //! position holds, the drift of the sensors that are (or are not) there.
 
+use std::borrow::Cow;
+
 use uom::si::f64::{Acceleration, Angle, Length, MomentOfInertia, Time, Torque};
 use uom::si::{
     acceleration::meter_per_second_squared, angle::degree, length::meter,
@@ -17,6 +19,7 @@ use super::common::{self, fixed, per_tier};
 use crate::catalog::tiers::{Tier, ACCEL_BIAS, GYRO_DRIFT, LEVEL_ERROR, THRUST_MISMATCH};
 use crate::claim::{Claim, PositionSensor};
 use crate::physics::{body, control};
+use crate::report::say::{say, Joined, PerTier};
 use crate::report::Sig3;
 use crate::report::{Figure, Finding, Verdict};
 
@@ -40,8 +43,8 @@ const DEFAULT_HOLD_S: f64 = 60.0;
 /// One part of the judgement: a verdict and the sentence that explains it.
 struct Part {
     verdict: Verdict,
-    says: String,
-    fix: Option<String>,
+    says: Cow<'static, str>,
+    fix: Option<&'static str>,
 }
 
 /// How the craft tips fastest: the lever of the rotor farthest from a body axis
@@ -122,22 +125,26 @@ pub fn check(claim: &Claim) -> Finding {
     let c = &claim.claim;
     let n = f64::from(claim.rotors.count);
     let hold = c.flight_time.unwrap_or(Time::new::<second>(DEFAULT_HOLD_S));
-    let mut figures: Vec<Figure> = Vec::new();
-    let mut parts: Vec<Part> = Vec::new();
-    let mut assumptions = vec![format!(
-        "Thrust mismatch {} / {} / {} of one rotor's hover thrust (physical limit / best practice / typical); {}.",
-        THRUST_MISMATCH.at(Tier::PhysicalLimit),
-        THRUST_MISMATCH.at(Tier::BestPractice),
-        THRUST_MISMATCH.at(Tier::Typical),
-        THRUST_MISMATCH.basis.describe()
-    )];
+    // At most: the inertia, three times to tip, the reaction time and three drifts of each kind.
+    let mut figures: Vec<Figure> = Vec::with_capacity(14);
+    let mut parts: Vec<Part> = Vec::with_capacity(4);
+    let mut assumptions = Vec::with_capacity(7);
+    assumptions.push(say!(
+        "Thrust mismatch ",
+        PerTier(THRUST_MISMATCH.values),
+        " of one rotor's hover thrust (physical limit / best practice / typical); ",
+        THRUST_MISMATCH.basis,
+        "."
+    ));
 
     // Time to tip from a thrust mismatch, from rest, at constant moment.
     let tip = tipping(claim).map(|g| {
-        assumptions.push(format!(
-            "Moment of inertia of {}; lever of the farthest rotor {} mm.",
+        assumptions.push(say!(
+            "Moment of inertia of ",
             g.shape,
-            Sig3(g.lever.get::<uom::si::length::millimeter>())
+            "; lever of the farthest rotor ",
+            Sig3(g.lever.get::<uom::si::length::millimeter>()),
+            " mm."
         ));
         figures.push(fixed(
             "moment_of_inertia",
@@ -173,30 +180,33 @@ pub fn check(claim: &Claim) -> Finding {
         (true, Some(false)) => parts.push(Part {
             verdict: Verdict::Impossible,
             says: "It is said to hover by itself with no gyroscope: an unstable craft cannot be held without measuring how fast it turns.".into(),
-            fix: Some("a rate gyroscope and a flight controller closing the loop at a few hundred hertz".into()),
+            fix: Some("a rate gyroscope and a flight controller closing the loop at a few hundred hertz"),
         }),
         (_, None) => parts.push(Part {
             verdict: Verdict::NotAssessed,
             says: "The sheet does not say whether it has a gyroscope (sensing.gyroscope).".into(),
-            fix: Some("say whether it has a gyroscope (sensing.gyroscope)".into()),
+            fix: Some("say whether it has a gyroscope (sensing.gyroscope)"),
         }),
         (false, Some(false)) => match tip {
             Some(tip) => {
                 let v = common::verdict_of(|t| t == Tier::PhysicalLimit || tip[t as usize] >= catch);
                 parts.push(Part {
                     verdict: v,
-                    says: format!(
-                        "With no gyroscope the pilot must catch every tip by hand: it tips 30 deg in about {} s, against a reaction time of {} s.",
+                    says: say!(
+                        "With no gyroscope the pilot must catch every tip by hand: it tips 30 deg in about ",
                         Sig3(tip[Tier::Typical as usize].get::<second>()),
-                        REACTION_S
-                    ),
-                    fix: (v != Verdict::Consistent).then(|| "a rate gyroscope in a stabilising loop".to_string()),
+                        " s, against a reaction time of ",
+                        REACTION_S,
+                        " s."
+                    )
+                    .into(),
+                    fix: (v != Verdict::Consistent).then_some("a rate gyroscope in a stabilising loop"),
                 });
             }
             None => parts.push(Part {
                 verdict: Verdict::NotAssessed,
                 says: "Flown by hand with no gyroscope; the time to tip needs the arm (rotors.arm) or the size (craft.size).".into(),
-                fix: Some("give rotors.arm or craft.size".into()),
+                fix: Some("give rotors.arm or craft.size"),
             }),
         },
         (_, Some(true)) => parts.push(Part {
@@ -220,17 +230,19 @@ pub fn check(claim: &Claim) -> Finding {
                 let v = judge_drift(drift, hold);
                 parts.push(Part {
                     verdict: v,
-                    says: format!(
-                        "Hands-free with a gyroscope but no accelerometer, its idea of level drifts 5 deg in about {} s with typical parts.",
-                        Sig3(drift[Tier::Typical as usize].get::<second>())
-                    ),
-                    fix: (v != Verdict::Consistent).then(|| "an accelerometer to keep the level reference".to_string()),
+                    says: say!(
+                        "Hands-free with a gyroscope but no accelerometer, its idea of level drifts 5 deg in about ",
+                        Sig3(drift[Tier::Typical as usize].get::<second>()),
+                        " s with typical parts."
+                    )
+                    .into(),
+                    fix: (v != Verdict::Consistent).then_some("an accelerometer to keep the level reference"),
                 });
             }
             None => parts.push(Part {
                 verdict: Verdict::NotAssessed,
                 says: "Hands-free: the sheet does not say whether it has an accelerometer (sensing.accelerometer).".into(),
-                fix: Some("say whether it has an accelerometer (sensing.accelerometer)".into()),
+                fix: Some("say whether it has an accelerometer (sensing.accelerometer)"),
             }),
             Some(true) => {}
         }
@@ -258,10 +270,12 @@ pub fn check(claim: &Claim) -> Finding {
             let v = judge_drift(drift, hold);
             parts.push(Part {
                 verdict: v,
-                says: format!(
-                    "It is said to hold its height with no height sensor; the accelerometer alone lets height drift 1 m in about {} s.",
-                    Sig3(drift[Tier::Typical as usize].get::<second>())
-                ),
+                says: say!(
+                    "It is said to hold its height with no height sensor; the accelerometer alone lets height drift 1 m in about ",
+                    Sig3(drift[Tier::Typical as usize].get::<second>()),
+                    " s."
+                )
+                .into(),
                 fix: None,
             });
             v
@@ -274,8 +288,8 @@ pub fn check(claim: &Claim) -> Finding {
             Verdict::Implausible
         };
         if let Some(last) = parts.last_mut() {
-            last.fix = (v != Verdict::Consistent)
-                .then(|| "a barometer or a range sensor for height".to_string());
+            last.fix =
+                (v != Verdict::Consistent).then_some("a barometer or a range sensor for height");
         }
     }
 
@@ -302,38 +316,51 @@ pub fn check(claim: &Claim) -> Finding {
         };
         parts.push(Part {
             verdict: v,
-            says: format!(
-                "It is said to stay in place with no position sensor; a level error of {} deg slides it 1 m in about {} s.",
+            says: say!(
+                "It is said to stay in place with no position sensor; a level error of ",
                 LEVEL_ERROR.at(Tier::Typical),
-                Sig3(drift[Tier::Typical as usize].get::<second>())
-            ),
-            fix: (v != Verdict::Consistent).then(|| "a position sensor: optical flow with a range sensor indoors, satellite navigation outdoors".to_string()),
+                " deg slides it 1 m in about ",
+                Sig3(drift[Tier::Typical as usize].get::<second>()),
+                " s."
+            )
+            .into(),
+            fix: (v != Verdict::Consistent).then_some("a position sensor: optical flow with a range sensor indoors, satellite navigation outdoors"),
         });
     }
     if c.altitude_hold || c.position_hold || c.hands_free {
-        assumptions.push(format!(
-            "Holds are judged {hold_needs}: {} s; a drift of {DRIFT_THAT_MATTERS_M} m or {ATTITUDE_ERROR_DEG} deg matters (common practice).",
-            Sig3(hold.get::<second>())
+        assumptions.push(say!(
+            "Holds are judged ",
+            hold_needs,
+            ": ",
+            Sig3(hold.get::<second>()),
+            " s; a drift of ",
+            DRIFT_THAT_MATTERS_M,
+            " m or ",
+            ATTITUDE_ERROR_DEG,
+            " deg matters (common practice)."
         ));
     }
 
     let verdict = Verdict::worst(parts.iter().map(|p| p.verdict));
-    let worst = parts.iter().find(|p| p.verdict == verdict);
-    let headline = worst.map_or_else(|| "Nothing to judge.".to_string(), |p| p.says.clone());
-    let fixes: Vec<String> = parts.iter().filter_map(|p| p.fix.clone()).collect();
+    let mut fixes: Vec<&str> = parts.iter().filter_map(|p| p.fix).collect();
+    fixes.dedup();
     let would_take = if fixes.is_empty() {
         "Nothing more for sensing.".to_string()
     } else {
-        let mut fixes = fixes;
-        fixes.dedup();
-        format!("Add {}.", fixes.join("; "))
+        say!("Add ", Joined(&fixes, "; "), ".")
     };
-    assumptions.extend(
-        parts
-            .iter()
-            .filter(|p| worst.is_none_or(|w| !std::ptr::eq(*p, w)))
-            .map(|p| p.says.clone()),
-    );
+    // The worst part is the headline; the others go with the assumptions.
+    let worst = parts.iter().position(|p| p.verdict == verdict);
+    let mut headline = None;
+    assumptions.reserve(parts.len());
+    for (i, p) in parts.into_iter().enumerate() {
+        if Some(i) == worst {
+            headline = Some(p.says.into_owned());
+        } else {
+            assumptions.push(p.says.into_owned());
+        }
+    }
+    let headline = headline.unwrap_or_else(|| "Nothing to judge.".to_string());
     Finding {
         rule: ID,
         verdict,

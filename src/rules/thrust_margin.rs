@@ -21,6 +21,7 @@ use crate::catalog::{self, Drive, MotorClass};
 use crate::claim::{Claim, Layout};
 use crate::physics::atmosphere::{self, Air};
 use crate::physics::rotor;
+use crate::report::say::{push_sig3, say, say_to, Piece};
 use crate::report::{Finding, Verdict};
 use crate::report::{Fixed, Sig3};
 
@@ -135,13 +136,23 @@ pub fn estimate(claim: &Claim, air: &Air) -> Option<Estimate> {
     })
 }
 
-/// A force as a layperson reads it: grams or kilograms of lift.
-pub fn lift(f: Force) -> String {
-    let g = f.get::<gram_force>();
-    if g.abs() >= 1000.0 {
-        format!("{} kg", Sig3(g / 1000.0))
-    } else {
-        format!("{} g", Sig3(g))
+/// A force as a layperson reads it: grams or kilograms of lift ("850 g", "1.20 kg").
+#[derive(Debug, Clone, Copy)]
+pub struct Lift(pub Force);
+
+impl Piece for Lift {
+    fn size(&self) -> usize {
+        13
+    }
+    fn push_to(&self, out: &mut String) {
+        let g = self.0.get::<gram_force>();
+        if g.abs() >= 1000.0 {
+            push_sig3(out, g / 1000.0);
+            out.push_str(" kg");
+        } else {
+            push_sig3(out, g);
+            out.push_str(" g");
+        }
     }
 }
 
@@ -184,15 +195,20 @@ pub fn check(claim: &Claim) -> Finding {
             .value
             .ceil()
     };
-    let mut figures = vec![
-        fixed("weight", "Weight of the craft", w.get::<newton>(), "N"),
-        fixed(
-            "air_density",
-            "Air density (ISA at the stated altitude and temperature)",
-            air.density.get::<kilogram_per_cubic_meter>(),
-            "kg/m^3",
-        ),
-    ];
+    // Two fixed figures and five per tier.
+    let mut figures = Vec::with_capacity(17);
+    figures.push(fixed(
+        "weight",
+        "Weight of the craft",
+        w.get::<newton>(),
+        "N",
+    ));
+    figures.push(fixed(
+        "air_density",
+        "Air density (ISA at the stated altitude and temperature)",
+        air.density.get::<kilogram_per_cubic_meter>(),
+        "kg/m^3",
+    ));
     figures.extend(per_tier(
         "thrust_per_rotor",
         "Maximum thrust of one rotor",
@@ -259,7 +275,7 @@ fn headline(
     fraction: &dyn Fn(Tier) -> f64,
 ) -> String {
     let n = claim.rotors.count;
-    let weighs = lift(w);
+    let weighs = Lift(w);
     if let (Basis::Stated(s), Some(tier), Some(b), Some((p, _)), Some((d, _))) = (
         est.basis,
         stated_fails,
@@ -271,33 +287,55 @@ fn headline(
             Tier::PhysicalLimit => "more than momentum theory allows even for a perfect rotor",
             _ => "more than the best real rotors achieve",
         };
-        return format!(
-            "The stated {} per rotor is {what} on {} W and a {} mm rotor (at most {}).",
-            lift(s),
+        return say!(
+            "The stated ",
+            Lift(s),
+            " per rotor is ",
+            what,
+            " on ",
             Sig3(p.get::<watt>()),
+            " W and a ",
             Sig3(d.get::<millimeter>()),
-            lift(b[tier as usize])
+            " mm rotor (at most ",
+            Lift(b[tier as usize]),
+            ")."
         );
     }
-    let percent = |t: Tier| format!("{} %", Sig3(100.0 * fraction(t)));
+    let percent = Sig3(100.0 * fraction(Tier::Typical));
     match verdict {
-        Verdict::Impossible => format!(
-            "Even perfect rotors of this size and power lift at most {} in all; the craft weighs {weighs}.",
-            lift(total(Tier::PhysicalLimit))
+        Verdict::Impossible => say!(
+            "Even perfect rotors of this size and power lift at most ",
+            Lift(total(Tier::PhysicalLimit)),
+            " in all; the craft weighs ",
+            weighs,
+            "."
         ),
-        Verdict::Implausible => format!(
-            "Only better-than-best hardware would lift it: the best {n} rotors of this kind give {} against a weight of {weighs}.",
-            lift(total(Tier::BestPractice))
+        Verdict::Implausible => say!(
+            "Only better-than-best hardware would lift it: the best ",
+            n,
+            " rotors of this kind give ",
+            Lift(total(Tier::BestPractice)),
+            " against a weight of ",
+            weighs,
+            "."
         ),
-        Verdict::Doubtful => format!(
-            "It would hover at {} of typical maximum thrust ({} in all for {weighs}); common practice keeps hover under 70 %.",
-            percent(Tier::Typical),
-            lift(total(Tier::Typical))
+        Verdict::Doubtful => say!(
+            "It would hover at ",
+            percent,
+            " % of typical maximum thrust (",
+            Lift(total(Tier::Typical)),
+            " in all for ",
+            weighs,
+            "); common practice keeps hover under 70 %."
         ),
-        _ => format!(
-            "Hovers at {} of typical maximum thrust ({} in all for {weighs}), inside the 70 % of common practice.",
-            percent(Tier::Typical),
-            lift(total(Tier::Typical))
+        _ => say!(
+            "Hovers at ",
+            percent,
+            " % of typical maximum thrust (",
+            Lift(total(Tier::Typical)),
+            " in all for ",
+            weighs,
+            "), inside the 70 % of common practice."
         ),
     }
 }
@@ -318,76 +356,104 @@ fn would_take(claim: &Claim, est: &Estimate, w: Force, air: &Air) -> String {
     let lightest = typical * (f64::from(n) * SIZING_FRACTION);
     let hover_ok = w <= lightest;
     if hover_ok {
-        return format!(
-            "Nothing: {n} rotors of this kind hover it at 70 % of typical thrust up to a weight of {}.",
-            lift(lightest)
+        return say!(
+            "Nothing: ",
+            n,
+            " rotors of this kind hover it at 70 % of typical thrust up to a weight of ",
+            Lift(lightest),
+            "."
         );
     }
-    let mut line = format!(
-        "{needed} rotors of this kind instead of {n}, or a craft of at most {} on the {n} it has",
-        lift(lightest)
+    let mut line = say!(
+        needed,
+        " rotors of this kind instead of ",
+        n,
+        ", or a craft of at most ",
+        Lift(lightest),
+        " on the ",
+        n,
+        " it has"
     );
     let class = catalog::MOTORS
         .iter()
-        .find(|c| class_typical(claim, c, air) * (f64::from(n) * SIZING_FRACTION) >= w);
-    if let Some(c) = class {
-        line.push_str(&format!(
-            ", or {n} motors of class {} ({}), about {} of thrust in all",
+        .map(|c| (c, class_typical(claim, c, air)))
+        .find(|&(_, typical)| typical * (f64::from(n) * SIZING_FRACTION) >= w);
+    if let Some((c, typical)) = class {
+        say_to!(
+            &mut line,
+            ", or ",
+            n,
+            " motors of class ",
             c.id,
+            " (",
             c.label,
-            lift(class_typical(claim, c, air) * f64::from(n))
-        ));
+            "), about ",
+            Lift(typical * f64::from(n)),
+            " of thrust in all"
+        );
     }
     line.push('.');
     line
 }
 
 fn assumptions(claim: &Claim, est: &Estimate, air: &Air) -> Vec<String> {
-    let mut out = vec![format!(
-        "Air density {} kg/m^3 and gravity {} m/s^2 (ISA at {} m).",
+    let mut out = Vec::with_capacity(7);
+    out.push(say!(
+        "Air density ",
         Fixed(air.density.get::<kilogram_per_cubic_meter>(), 4),
+        " kg/m^3 and gravity ",
         Fixed(air.gravity.value, 4),
-        Sig3(claim.conditions.altitude.value)
-    )];
+        " m/s^2 (ISA at ",
+        Sig3(claim.conditions.altitude.value),
+        " m)."
+    ));
     match est.basis {
         Basis::Stated(t) => {
-            let read_as = if claim.rotors.max_thrust_from_mass {
-                format!(
-                    "rotors.max_thrust was written as a mass and read as gram-force ({} N)",
-                    Sig3(t.get::<newton>())
+            const TAKEN: &str = "; a stated thrust is taken at every tier, as static thrust at sea level scaled by air density.";
+            out.push(if claim.rotors.max_thrust_from_mass {
+                say!(
+                    "rotors.max_thrust was written as a mass and read as gram-force (",
+                    Sig3(t.get::<newton>()),
+                    " N)",
+                    TAKEN
                 )
             } else {
-                "rotors.max_thrust is taken as stated".to_string()
-            };
-            out.push(format!(
-                "{read_as}; a stated thrust is taken at every tier, as static thrust at sea level scaled by air density."
-            ));
+                say!("rotors.max_thrust is taken as stated", TAKEN)
+            });
         }
-        Basis::Class(c) => out.push(format!(
-            "Thrust per rotor from motor class {} ({}): {}-{} g at sea level, capped by the momentum bound; {}.",
+        Basis::Class(c) => out.push(say!(
+            "Thrust per rotor from motor class ",
             c.id,
+            " (",
             c.label,
+            "): ",
             c.thrust_gf.0,
+            "-",
             c.thrust_gf.1,
-            c.basis.describe()
+            " g at sea level, capped by the momentum bound; ",
+            c.basis,
+            "."
         )),
         Basis::Power => out.push(
-            "Thrust per rotor from the momentum bound for the stated power and diameter alone.".to_string(),
+            "Thrust per rotor from the momentum bound for the stated power and diameter alone."
+                .to_string(),
         ),
     }
     if let Some((d, stated)) = est.diameter {
         if !stated {
-            out.push(format!(
-                "Rotor diameter {} mm, the largest usual for the motor class (rotors.diameter not given).",
-                Sig3(d.get::<millimeter>())
+            out.push(say!(
+                "Rotor diameter ",
+                Sig3(d.get::<millimeter>()),
+                " mm, the largest usual for the motor class (rotors.diameter not given)."
             ));
         }
     }
     if let Some((p, stated)) = est.power {
         if !stated {
-            out.push(format!(
-                "Electrical power {} W per motor from the motor class (rotors.max_power not given).",
-                Sig3(p.get::<watt>())
+            out.push(say!(
+                "Electrical power ",
+                Sig3(p.get::<watt>()),
+                " W per motor from the motor class (rotors.max_power not given)."
             ));
         }
     }
@@ -397,16 +463,20 @@ fn assumptions(claim: &Claim, est: &Estimate, air: &Air) -> Vec<String> {
     if let Some(total) = claim.craft.parts_total {
         let off = (total / claim.craft.mass).value - 1.0;
         if off.abs() <= 0.05 {
-            out.push(format!(
-                "The parts list adds up to {} g, within 5 % of the mass used.",
-                Sig3(total.get::<gram>())
+            out.push(say!(
+                "The parts list adds up to ",
+                Sig3(total.get::<gram>()),
+                " g, within 5 % of the mass used."
             ));
         } else {
-            out.push(format!(
-                "The parts list adds up to {} g, {} % {} the stated mass: the stated mass is used.",
+            out.push(say!(
+                "The parts list adds up to ",
                 Sig3(total.get::<gram>()),
+                " g, ",
                 Sig3(100.0 * off.abs()),
-                if off > 0.0 { "above" } else { "below" }
+                " % ",
+                if off > 0.0 { "above" } else { "below" },
+                " the stated mass: the stated mass is used."
             ));
         }
     }

@@ -13,10 +13,11 @@ use uom::si::{
 };
 
 use super::common::{self, fixed, per_tier};
-use super::thrust_margin::{self, lift};
+use super::thrust_margin::{self, Lift};
 use crate::catalog::tiers::{Tier, BODY_DRAG};
 use crate::claim::{BoxSize, Claim, Mount};
 use crate::physics::{body, drag};
+use crate::report::say::{say, say_to, Or};
 use crate::report::Sig3;
 use crate::report::{Finding, Verdict};
 
@@ -56,7 +57,9 @@ pub fn check(claim: &Claim) -> Finding {
     let thrust_needed: Force = w / residual.cos().value;
     let accel = body::tilt_acceleration(air.gravity, residual);
 
-    let mut figures = vec![
+    // Five fixed figures at most and the headwind per tier.
+    let mut figures = Vec::with_capacity(8);
+    figures.extend([
         fixed(
             "hover_tilt",
             "Claimed body tilt in hover",
@@ -81,7 +84,7 @@ pub fn check(claim: &Claim) -> Finding {
             thrust_needed.get::<newton>(),
             "N",
         ),
-    ];
+    ]);
     if r.mount == Mount::Tilting {
         figures.push(fixed(
             "uncompensated_tilt",
@@ -135,71 +138,98 @@ pub fn check(claim: &Claim) -> Finding {
     };
 
     let deg = Sig3(tilt.get::<degree>());
+    let wind = Sig3(claim.conditions.wind.get::<meter_per_second>());
     let headline = match verdict {
-        _ if wind_unknown && verdict == Verdict::NotAssessed => format!(
-            "A {deg} deg tilt leaves {} m/s^2 sideways; whether the stated wind holds it needs the body size (craft.size).",
-            Sig3(accel.get::<meter_per_second_squared>())
+        _ if wind_unknown && verdict == Verdict::NotAssessed => say!(
+            "A ",
+            deg,
+            " deg tilt leaves ",
+            Sig3(accel.get::<meter_per_second_squared>()),
+            " m/s^2 sideways; whether the stated wind holds it needs the body size (craft.size)."
         ),
-        Verdict::Impossible if still_air && !balanced => format!(
-            "Tilted {deg} deg with rotors fixed to the body, it would accelerate sideways at {} m/s^2: it cannot hover in still air.",
-            Sig3(accel.get::<meter_per_second_squared>())
+        Verdict::Impossible if still_air && !balanced => say!(
+            "Tilted ",
+            deg,
+            " deg with rotors fixed to the body, it would accelerate sideways at ",
+            Sig3(accel.get::<meter_per_second_squared>()),
+            " m/s^2: it cannot hover in still air."
         ),
-        Verdict::Consistent if balanced && tilt.get::<degree>() > 0.0 => format!(
-            "Rotors that tilt back {} deg keep the thrust upright, so a {deg} deg body tilt can be held.",
-            Sig3(compensation.get::<degree>())
+        Verdict::Consistent if balanced && tilt.get::<degree>() > 0.0 => say!(
+            "Rotors that tilt back ",
+            Sig3(compensation.get::<degree>()),
+            " deg keep the thrust upright, so a ",
+            deg,
+            " deg body tilt can be held."
         ),
         Verdict::Consistent if balanced => "A level hover leaves no sideways force.".to_string(),
-        Verdict::Consistent => format!(
-            "The stated {} m/s wind can hold a {deg} deg tilt with typical drag.",
-            Sig3(claim.conditions.wind.get::<meter_per_second>())
+        Verdict::Consistent => say!(
+            "The stated ",
+            wind,
+            " m/s wind can hold a ",
+            deg,
+            " deg tilt with typical drag."
         ),
-        _ if !(0..3).all(|i| thrust_ok(Tier::ALL[i])) => format!(
-            "Holding the weight at {deg} deg takes {} of thrust, more than the rotors give at the {} tier.",
-            lift(thrust_needed),
-            common::first_failure(thrust_ok).map_or("", |t| t.label())
+        _ if !(0..3).all(|i| thrust_ok(Tier::ALL[i])) => say!(
+            "Holding the weight at ",
+            deg,
+            " deg takes ",
+            Lift(thrust_needed),
+            " of thrust, more than the rotors give at the ",
+            common::first_failure(thrust_ok).map_or("", |t| t.label()),
+            " tier."
         ),
-        _ => format!(
-            "The stated wind of {} m/s is short of the {} m/s whose drag would hold a {deg} deg tilt.",
-            Sig3(claim.conditions.wind.get::<meter_per_second>()),
-            headwind.map_or("?".to_string(), |v| Sig3(
-                v[Tier::Typical as usize].get::<meter_per_second>()
-            )
-            .to_string())
+        _ => say!(
+            "The stated wind of ",
+            wind,
+            " m/s is short of the ",
+            Or(
+                headwind.map(|v| Sig3(v[Tier::Typical as usize].get::<meter_per_second>())),
+                "?"
+            ),
+            " m/s whose drag would hold a ",
+            deg,
+            " deg tilt."
         ),
     };
 
     let would_take = if balanced {
         "Nothing more for the attitude.".to_string()
     } else {
-        let mut ways = Vec::new();
+        let mut ways = String::from("Any of: ");
         if let Some(v) = headwind {
-            ways.push(format!(
-                "a steady headwind of about {} m/s (typical drag; {} m/s with the most drag a body can have)",
+            say_to!(
+                &mut ways,
+                "a steady headwind of about ",
                 Sig3(v[Tier::Typical as usize].get::<meter_per_second>()),
-                Sig3(v[Tier::PhysicalLimit as usize].get::<meter_per_second>())
-            ));
+                " m/s (typical drag; ",
+                Sig3(v[Tier::PhysicalLimit as usize].get::<meter_per_second>()),
+                " m/s with the most drag a body can have); "
+            );
         }
-        ways.push(format!(
-            "a tether or support taking {} sideways",
-            lift(sideways)
-        ));
-        ways.push(format!(
-            "rotors that tilt back by {} deg relative to the body",
-            Sig3(tilt.get::<degree>())
-        ));
-        format!("Any of: {}.", ways.join("; "))
+        say_to!(
+            &mut ways,
+            "a tether or support taking ",
+            Lift(sideways),
+            " sideways; rotors that tilt back by ",
+            deg,
+            " deg relative to the body."
+        );
+        ways
     };
 
-    let mut assumptions = vec![
-        "Steady hover: no climb, no turn; thrust along the rotor axis.".to_string(),
-        format!(
-            "Drag coefficient {} (physical limit), {} (best practice), {} (typical); {}.",
-            BODY_DRAG.at(Tier::PhysicalLimit),
-            BODY_DRAG.at(Tier::BestPractice),
-            BODY_DRAG.at(Tier::Typical),
-            BODY_DRAG.basis.describe()
-        ),
-    ];
+    let mut assumptions = Vec::with_capacity(4);
+    assumptions.push("Steady hover: no climb, no turn; thrust along the rotor axis.".to_string());
+    assumptions.push(say!(
+        "Drag coefficient ",
+        BODY_DRAG.at(Tier::PhysicalLimit),
+        " (physical limit), ",
+        BODY_DRAG.at(Tier::BestPractice),
+        " (best practice), ",
+        BODY_DRAG.at(Tier::Typical),
+        " (typical); ",
+        BODY_DRAG.basis,
+        "."
+    ));
     if claim.craft.size.is_some() {
         assumptions.push(
             "Wind area: the largest the body can show (physical limit), else the pitched body's projected area."
