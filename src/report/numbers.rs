@@ -16,11 +16,18 @@ pub struct Fixed(pub f64, pub usize);
 
 impl fmt::Display for Fixed {
     fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        self.write_to(f)
+    }
+}
+
+impl Fixed {
+    /// The same text into any writer, for those that skip the Formatter.
+    pub fn write_to<W: fmt::Write + ?Sized>(&self, out: &mut W) -> fmt::Result {
         let Fixed(v, places) = *self;
         let mut buf = Digits::new();
         match fast_fixed(v, places, &mut buf) {
-            Some(at) => f.write_str(buf.text(at)),
-            None => write!(f, "{v:.places$}"),
+            Some(at) => out.write_str(buf.text(at)),
+            None => write!(out, "{v:.places$}"),
         }
     }
 }
@@ -30,14 +37,16 @@ impl fmt::Display for Fixed {
 pub fn push_fixed(out: &mut String, v: f64, places: usize) {
     let mut buf = Digits::new();
     match fast_fixed(v, places, &mut buf) {
-        Some(at) => {
-            // Sixteen bytes from the first digit, then the length cut back:
-            // a copy of fixed size is a few moves, one of the digits' own
-            // length a call to memcpy, and a page makes hundreds.
+        // Where there is room, sixteen bytes from the first digit and the
+        // length cut back: a copy of fixed size is a few moves, one of the
+        // digits' own length a call to memcpy, and a page makes hundreds.
+        // (Without room, that would grow a buffer sized to fit.)
+        Some(at) if out.capacity() - out.len() >= END => {
             let len = out.len() + (END - at);
             out.push_str(buf.block(at));
             out.truncate(len);
         }
+        Some(at) => out.push_str(buf.text(at)),
         None => {
             use fmt::Write as _;
             let _ = write!(out, "{v:.places$}");
@@ -212,19 +221,54 @@ pub struct Sig3(pub f64);
 
 impl fmt::Display for Sig3 {
     fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        self.write_to(f)
+    }
+}
+
+impl Sig3 {
+    /// The same text into any writer, for those that skip the Formatter.
+    pub fn write_to<W: fmt::Write + ?Sized>(self, out: &mut W) -> fmt::Result {
         let v = self.0;
         if v.is_nan() {
-            return f.write_str("n/a");
+            return out.write_str("n/a");
         }
         if v.is_infinite() {
-            return f.write_str(if v > 0.0 { "unbounded" } else { "-unbounded" });
+            return out.write_str(if v > 0.0 { "unbounded" } else { "-unbounded" });
         }
         if v == 0.0 {
-            return f.write_str("0");
+            return out.write_str("0");
         }
-        let digits = 2 - v.abs().log10().floor() as i32;
-        Fixed(v, digits.max(0) as usize).fmt(f)
+        Fixed(v, sig3_places(v)).write_to(out)
     }
+}
+
+/// Exact powers of ten as f64, 1e-12 to 1e15: every one of them is the
+/// double nearest the power.
+const POWERS: [f64; 28] = [
+    1e-12, 1e-11, 1e-10, 1e-9, 1e-8, 1e-7, 1e-6, 1e-5, 1e-4, 1e-3, 1e-2, 1e-1, 1e0, 1e1, 1e2, 1e3,
+    1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12, 1e13, 1e14, 1e15,
+];
+/// The exponent of `POWERS[0]`.
+const LOWEST_POWER: i32 = -12;
+
+/// The decimals that give a finite, non-zero `v` three significant figures:
+/// `max(0, 2 - floor(log10 |v|))`. The decade comes from comparing |v| with
+/// the powers of ten instead of from `log10` (a libm call, most of a
+/// [`Sig3`]'s cost); within a hair of a power of ten, where `log10` may
+/// round onto the power, and outside the table, `log10` decides.
+pub(crate) fn sig3_places(v: f64) -> usize {
+    let a = v.abs();
+    // POWERS[above - 1] <= a < POWERS[above]
+    let above = POWERS.partition_point(|&p| p <= a);
+    let exponent = match (above.checked_sub(1), POWERS.get(above)) {
+        (Some(below), Some(&upper))
+            if a > POWERS[below] * (1.0 + 1e-9) && a < upper * (1.0 - 1e-9) =>
+        {
+            below as i32 + LOWEST_POWER
+        }
+        _ => a.log10().floor() as i32,
+    };
+    (2 - exponent).max(0) as usize
 }
 
 /// [`Sig3`] as a string.

@@ -10,7 +10,7 @@
 use std::borrow::Cow;
 use std::fmt::Write as _;
 
-use super::numbers::{push_fixed, Fixed, Sig3};
+use super::numbers::{push_fixed, sig3_places, Fixed, Sig3};
 use crate::catalog::Basis;
 
 /// One piece of a sentence: text as it is, or a number in its words.
@@ -275,15 +275,6 @@ pub fn push_u64(out: &mut String, mut n: u64) {
     out.extend(digits[at..].iter().map(|&d| char::from(d)));
 }
 
-/// Exact powers of ten as f64, 1e-12 to 1e15: every one of them is the
-/// double nearest the power.
-const POWERS: [f64; 28] = [
-    1e-12, 1e-11, 1e-10, 1e-9, 1e-8, 1e-7, 1e-6, 1e-5, 1e-4, 1e-3, 1e-2, 1e-1, 1e0, 1e1, 1e2, 1e3,
-    1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12, 1e13, 1e14, 1e15,
-];
-/// The exponent of `POWERS[0]`.
-const LOWEST_POWER: i32 = -12;
-
 /// Appends [`Sig3`]`(v)`, byte for byte: `Fixed(v, max(0, 2 - floor(log10 |v|)))`,
 /// "0" for zero, "n/a" for NaN, "unbounded" or "-unbounded" for an infinity.
 /// The decade comes from comparing |v| with the powers of ten instead of
@@ -300,18 +291,7 @@ pub fn push_sig3(out: &mut String, v: f64) {
     if v == 0.0 {
         return out.push('0');
     }
-    let a = v.abs();
-    // POWERS[above - 1] <= a < POWERS[above]
-    let above = POWERS.partition_point(|&p| p <= a);
-    let exponent = match (above.checked_sub(1), POWERS.get(above)) {
-        (Some(below), Some(&upper))
-            if a > POWERS[below] * (1.0 + 1e-9) && a < upper * (1.0 - 1e-9) =>
-        {
-            below as i32 + LOWEST_POWER
-        }
-        _ => a.log10().floor() as i32,
-    };
-    push_fixed(out, v, (2 - exponent).max(0) as usize);
+    push_fixed(out, v, sig3_places(v));
 }
 
 /// Appends `v` as `{}` writes an f64: the fewest decimals that read back as
@@ -402,11 +382,25 @@ mod tests {
     }
 
     #[test]
-    fn sig3_pushes_exactly_what_sig3_displays() {
+    fn sig3_is_the_decimals_log10_gives_as_the_standard_formatter_writes_them() {
+        // The definition, from std alone: max(0, 2 - floor(log10 |v|))
+        // decimals, `{:.N}`. Both writers use the decade table, so both are
+        // held to it here.
         for v in awkward_values() {
-            let mut pushed = String::from("x");
+            let expected = if v.is_nan() {
+                "n/a".to_string()
+            } else if v.is_infinite() {
+                (if v > 0.0 { "unbounded" } else { "-unbounded" }).to_string()
+            } else if v == 0.0 {
+                "0".to_string()
+            } else {
+                let places = (2 - v.abs().log10().floor() as i32).max(0) as usize;
+                format!("{v:.places$}")
+            };
+            let mut pushed = String::new();
             push_sig3(&mut pushed, v);
-            assert_eq!(pushed, format!("x{}", Sig3(v)), "{v:?}");
+            assert_eq!(pushed, expected, "{v:?}");
+            assert_eq!(Sig3(v).to_string(), expected, "{v:?}");
         }
     }
 

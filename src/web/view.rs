@@ -106,7 +106,12 @@ impl askama::FastWritable for Cell {
         dest: &mut W,
         _: &dyn askama::Values,
     ) -> askama::Result<()> {
-        Ok(write!(dest, "{self}")?)
+        match *self {
+            Cell::Missing => dest.write_str("-")?,
+            Cell::Count(n) => write!(dest, "{n}")?,
+            Cell::Number(v) => Sig3(v).write_to(dest)?,
+        }
+        Ok(())
     }
 }
 
