@@ -33,10 +33,14 @@ impl Pieces for () {
     fn push_to(&self, _: &mut String) {}
 }
 
+// Inlined all the way down, so that each literal piece is a copy of known
+// length (a few moves) rather than a call to memcpy.
 impl<A: Piece, B: Pieces> Pieces for (A, B) {
+    #[inline(always)]
     fn size(&self) -> usize {
         self.0.size() + self.1.size()
     }
+    #[inline(always)]
     fn push_to(&self, out: &mut String) {
         self.0.push_to(out);
         self.1.push_to(out);
@@ -51,6 +55,7 @@ pub fn text(pieces: impl Pieces) -> String {
 }
 
 /// Appends `pieces` to `out`, growing it at most once.
+#[inline(always)]
 pub fn append(out: &mut String, pieces: impl Pieces) {
     out.reserve(pieces.size());
     pieces.push_to(out);
@@ -82,9 +87,11 @@ pub(crate) use say_to;
 macro_rules! text_piece {
     ($($t:ty),+) => {$(
         impl Piece for $t {
+            #[inline(always)]
             fn size(&self) -> usize {
                 self.len()
             }
+            #[inline(always)]
             fn push_to(&self, out: &mut String) {
                 out.push_str(self);
             }
@@ -103,9 +110,11 @@ impl Piece for char {
 }
 
 impl<T: Piece + ?Sized> Piece for &T {
+    #[inline(always)]
     fn size(&self) -> usize {
         (**self).size()
     }
+    #[inline(always)]
     fn push_to(&self, out: &mut String) {
         (**self).push_to(out);
     }

@@ -16,6 +16,7 @@ use crate::report::{Finding, Report};
 use crate::rules::control_authority;
 
 use super::layout;
+use crate::report::say::{say_to, Piece};
 use crate::report::scan::Escapes;
 use crate::report::{push_fixed, Fixed, Sig3};
 
@@ -99,38 +100,21 @@ impl fmt::Write for Escaping<'_> {
     }
 }
 
-/// A coordinate in path data, as `{:.1}` writes it (see [`Fixed`]).
+/// A coordinate, as `{:.1}` writes it (see [`Fixed`]).
 fn d1(v: f64) -> Fixed {
     Fixed(v, 1)
 }
 
 /// A tiny SVG writer: shapes with presentation attributes only (no `style`),
 /// so the page's Content-Security-Policy holds and print keeps the colours.
-/// Coordinates and sizes are written to one decimal straight into the body
-/// ([`push_fixed`]): a page has hundreds, and the formatting machinery per
-/// number cost more than the drawing.
+/// Each element is written with `say_to!` as literal markup with the syntax
+/// around its numbers (`"<line x1=\""`, `"\" y1=\""`) and the numbers to one
+/// decimal ([`d1`], [`Size`]), straight into the body: a page has hundreds,
+/// and the formatting machinery per number cost more than the drawing.
 struct Svg {
     width: f64,
     height: f64,
     body: String,
-}
-
-/// A piece of an element as [`markup!`] writes it: markup of ours as it
-/// is, a number to one decimal.
-trait Piece {
-    fn put(self, out: &mut String);
-}
-
-impl Piece for &str {
-    fn put(self, out: &mut String) {
-        out.push_str(self);
-    }
-}
-
-impl Piece for f64 {
-    fn put(self, out: &mut String) {
-        push_fixed(out, self, 1);
-    }
 }
 
 /// A pen width or type size. The drawings use a dozen such constants,
@@ -156,22 +140,15 @@ const SIZES: [(f64, &str); 12] = [
 ];
 
 impl Piece for Size {
-    fn put(self, out: &mut String) {
+    fn size(&self) -> usize {
+        4
+    }
+    fn push_to(&self, out: &mut String) {
         match SIZES.iter().find(|(v, _)| *v == self.0) {
             Some((_, text)) => out.push_str(text),
             None => push_fixed(out, self.0, 1),
         }
     }
-}
-
-/// Appends markup and numbers in turn, each markup piece a literal with
-/// the syntax around the numbers (`"<line x1=\""`, `"\" y1=\""`), so that
-/// it is copied as one block of known length.
-macro_rules! markup {
-    ($out:expr, $($piece:expr),+ $(,)?) => {{
-        let out: &mut String = $out;
-        $(Piece::put($piece, out);)+
-    }};
 }
 
 impl Svg {
@@ -192,16 +169,16 @@ impl Svg {
         w: f64,
         dash: bool,
     ) {
-        markup!(
+        say_to!(
             &mut self.body,
             "<line x1=\"",
-            x1,
+            d1(x1),
             "\" y1=\"",
-            y1,
+            d1(y1),
             "\" x2=\"",
-            x2,
+            d1(x2),
             "\" y2=\"",
-            y2,
+            d1(y2),
             "\" stroke-width=\"",
             Size(w),
             "\" stroke=\"",
@@ -230,20 +207,20 @@ impl Svg {
             (base.0 - uy * half, base.1 + ux * half),
             (base.0 + uy * half, base.1 - ux * half),
         );
-        markup!(
+        say_to!(
             &mut self.body,
             "<polygon points=\"",
-            to.0,
+            d1(to.0),
             ",",
-            to.1,
+            d1(to.1),
             " ",
-            left.0,
+            d1(left.0),
             ",",
-            left.1,
+            d1(left.1),
             " ",
-            right.0,
+            d1(right.0),
             ",",
-            right.1,
+            d1(right.1),
             "\" fill=\"",
             stroke,
             "\"/>",
@@ -251,16 +228,16 @@ impl Svg {
     }
 
     fn rect(&mut self, x: f64, y: f64, w: f64, h: f64, fill: &str, stroke: &str) {
-        markup!(
+        say_to!(
             &mut self.body,
             "<rect x=\"",
-            x,
+            d1(x),
             "\" y=\"",
-            y,
+            d1(y),
             "\" width=\"",
-            w.max(0.0),
+            d1(w.max(0.0)),
             "\" height=\"",
-            h.max(0.0),
+            d1(h.max(0.0)),
             "\" fill=\"",
             fill,
             "\" stroke=\"",
@@ -270,14 +247,14 @@ impl Svg {
     }
 
     fn circle(&mut self, (cx, cy): (f64, f64), r: f64, fill: &str, stroke: &str, dash: bool) {
-        markup!(
+        say_to!(
             &mut self.body,
             "<circle cx=\"",
-            cx,
+            d1(cx),
             "\" cy=\"",
-            cy,
+            d1(cy),
             "\" r=\"",
-            r,
+            d1(r),
             "\" fill=\"",
             fill,
             "\" stroke=\"",
@@ -291,7 +268,7 @@ impl Svg {
     }
 
     fn path(&mut self, d: &str, stroke: &str, w: f64) {
-        markup!(
+        say_to!(
             &mut self.body,
             "<path stroke-width=\"",
             Size(w),
@@ -313,12 +290,12 @@ impl Svg {
         fill: &str,
         text: impl fmt::Display,
     ) {
-        markup!(
+        say_to!(
             &mut self.body,
             "<text x=\"",
-            x,
+            d1(x),
             "\" y=\"",
-            y,
+            d1(y),
             "\" font-size=\"",
             Size(size),
             "\" text-anchor=\"",
@@ -341,7 +318,7 @@ impl Svg {
              font-family=\"system-ui, sans-serif\"><title id=\"{id}-t\">",
         );
         push_escaped(&mut out, title);
-        markup!(&mut out, "</title><desc id=\"", id, "-d\">");
+        say_to!(&mut out, "</title><desc id=\"", id, "-d\">");
         push_escaped(&mut out, desc);
         let _ = write!(
             out,
@@ -976,11 +953,11 @@ mod tests {
         for (v, text) in SIZES {
             assert_eq!(Fixed(v, 1).to_string(), text);
             let mut out = String::new();
-            Size(v).put(&mut out);
+            Size(v).push_to(&mut out);
             assert_eq!(out, text);
         }
         let mut out = String::new();
-        Size(7.25).put(&mut out);
+        Size(7.25).push_to(&mut out);
         assert_eq!(out, Fixed(7.25, 1).to_string());
     }
     use crate::claim::{self, Format};
