@@ -228,17 +228,25 @@ impl fmt::Display for Sig3 {
 impl Sig3 {
     /// The same text into any writer, for those that skip the Formatter.
     pub fn write_to<W: fmt::Write + ?Sized>(self, out: &mut W) -> fmt::Result {
+        match self.word() {
+            Some(word) => out.write_str(word),
+            None => Fixed(self.0, sig3_places(self.0)).write_to(out),
+        }
+    }
+
+    /// The text of a value without digits to write: "n/a" for NaN,
+    /// "unbounded" or "-unbounded" for an infinity, "0" for zero.
+    pub(crate) fn word(self) -> Option<&'static str> {
         let v = self.0;
         if v.is_nan() {
-            return out.write_str("n/a");
+            Some("n/a")
+        } else if v.is_infinite() {
+            Some(if v > 0.0 { "unbounded" } else { "-unbounded" })
+        } else if v == 0.0 {
+            Some("0")
+        } else {
+            None
         }
-        if v.is_infinite() {
-            return out.write_str(if v > 0.0 { "unbounded" } else { "-unbounded" });
-        }
-        if v == 0.0 {
-            return out.write_str("0");
-        }
-        Fixed(v, sig3_places(v)).write_to(out)
     }
 }
 

@@ -291,16 +291,10 @@ pub fn push_u64(out: &mut String, mut n: u64) {
 /// power of ten, where `log10` may round onto the power, and outside the
 /// table, `log10` decides as in `Sig3`.
 pub fn push_sig3(out: &mut String, v: f64) {
-    if v.is_nan() {
-        return out.push_str("n/a");
+    match Sig3(v).word() {
+        Some(word) => out.push_str(word),
+        None => push_fixed(out, v, sig3_places(v)),
     }
-    if v.is_infinite() {
-        return out.push_str(if v > 0.0 { "unbounded" } else { "-unbounded" });
-    }
-    if v == 0.0 {
-        return out.push('0');
-    }
-    push_fixed(out, v, sig3_places(v));
 }
 
 /// Appends `v` as `{}` writes an f64: the fewest decimals that read back as
