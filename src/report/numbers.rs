@@ -120,30 +120,38 @@ where
     whole + T::from(u8::from(up))
 }
 
-/// 10^places as an f64, exact up to 10^22.
-const POW10_F64: [f64; 13] = [
-    1e0, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12,
+/// 10^places for the places [`Fixed`] writes itself.
+const POW10: [u64; 13] = [
+    1,
+    10,
+    100,
+    1_000,
+    10_000,
+    100_000,
+    1_000_000,
+    10_000_000,
+    100_000_000,
+    1_000_000_000,
+    10_000_000_000,
+    100_000_000_000,
+    1_000_000_000_000,
 ];
+
+/// [`POW10`] as f64s (exact: every power of ten to 10^22 is a double).
+const POW10_F64: [f64; 13] = {
+    let mut t = [0.0; 13];
+    let mut i = 0;
+    while i < 13 {
+        t[i] = POW10[i] as f64;
+        i += 1;
+    }
+    t
+};
 
 /// `v` to `places` decimals in `buf`, starting at the index returned, or
 /// `None` where the standard formatter must decide (see [`Fixed`]).
 fn fast_fixed(v: f64, places: usize, digits: &mut Digits) -> Option<usize> {
     let buf = &mut digits.0;
-    const POW10: [u64; 13] = [
-        1,
-        10,
-        100,
-        1_000,
-        10_000,
-        100_000,
-        1_000_000,
-        10_000_000,
-        100_000_000,
-        1_000_000_000,
-        10_000_000_000,
-        100_000_000_000,
-        1_000_000_000_000,
-    ];
     let &unit = POW10.get(places)?;
     // Below 1e9 the digits fit the buffer (see below). (The powers of ten
     // as floats: converting a u64 takes a dozen instructions.)
