@@ -10,7 +10,7 @@ use serde::de::{self, Deserialize, Deserializer, MapAccess, SeqAccess, Visitor};
 use toml::de::{DeTable, DeValue};
 use toml::Spanned;
 
-use super::{Error, Format};
+use super::{plain_toml, Error, Format};
 
 /// A value of a parsed sheet, before any field is interpreted; its strings
 /// borrow from the sheet's text where they need no unescaping.
@@ -43,7 +43,25 @@ impl Node<'_> {
 }
 
 /// Parses TOML text into a tree; a syntax error carries line and column.
+///
+/// A sheet of the plain shape is read in one pass (`plain_toml`); anything
+/// else, every error included, goes to the general parser.
 pub fn from_toml(text: &str) -> Result<Node<'_>, Error> {
+    match plain_toml::read(text) {
+        Some(tree) => Ok(tree),
+        None => from_toml_general(text),
+    }
+}
+
+/// What the plain reader makes of a text against the general parser: `None` if
+/// it passes the text on, else whether the two read the same tree. The fuzz
+/// target and the robustness tests ask it of any text.
+pub fn toml_readers_agree(text: &str) -> Option<bool> {
+    plain_toml::read(text).map(|tree| from_toml_general(text).is_ok_and(|t| t == tree))
+}
+
+/// Parses TOML text with the general parser (toml 0.9's `DeTable`).
+pub(super) fn from_toml_general(text: &str) -> Result<Node<'_>, Error> {
     let table = DeTable::parse(text).map_err(|e| toml_error(text, e.message(), e.span()))?;
     toml_table(text, table.into_inner())
 }
