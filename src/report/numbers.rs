@@ -12,6 +12,7 @@ use std::fmt;
 /// Here the exact binary value times the power of ten is rounded in integer
 /// arithmetic, ties to even as the standard formatter rounds them; only a
 /// value of 1e9 or more once scaled goes to the standard formatter.
+#[derive(Debug, Clone, Copy)]
 pub struct Fixed(pub f64, pub usize);
 
 impl fmt::Display for Fixed {

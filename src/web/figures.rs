@@ -7,8 +7,6 @@
 //! note saying why, never a broken picture. Only numbers and fixed words go
 //! into the SVG; any text is escaped all the same.
 
-use std::fmt::{self, Write as _};
-
 use crate::catalog::tiers::{self, Tier};
 use crate::claim::{Claim, Spin};
 use crate::report::{Finding, Report};
@@ -16,7 +14,7 @@ use crate::report::{Finding, Report};
 use crate::rules::control_authority;
 
 use super::layout;
-use crate::report::say::{say_to, Piece};
+use crate::report::say::{self, say, say_to, Joined, Piece};
 use crate::report::scan::Escapes;
 use crate::report::{push_fixed, Fixed, Sig3};
 
@@ -42,7 +40,7 @@ impl Drawing {
         Drawing {
             id,
             title,
-            caption: format!("Not drawn: {reason}"),
+            caption: say!("Not drawn: ", reason),
             svg: None,
         }
     }
@@ -87,17 +85,6 @@ fn svg_entity(b: u8) -> &'static str {
 /// Appends `text` to `out` escaped for SVG ([`svg_entity`]).
 fn push_escaped(out: &mut String, text: &str) {
     let _ = Escapes::Html.write(out, text, svg_entity);
-}
-
-/// Writes into a String, escaping for SVG: text made by `format_args!`
-/// goes into a drawing without a String of its own.
-struct Escaping<'a>(&'a mut String);
-
-impl fmt::Write for Escaping<'_> {
-    fn write_str(&mut self, s: &str) -> fmt::Result {
-        push_escaped(self.0, s);
-        Ok(())
-    }
 }
 
 /// A coordinate, as `{:.1}` writes it (see [`Fixed`]).
@@ -267,29 +254,46 @@ impl Svg {
         );
     }
 
-    fn path(&mut self, d: &str, stroke: &str, w: f64) {
+    /// An unfilled arc of a circle of radius `r` from `from` to `to` (the
+    /// SVG path `M from A r r 0 flags to`; `flags` are the large-arc and
+    /// sweep flags).
+    fn arc(
+        &mut self,
+        from: (f64, f64),
+        r: impl Piece + Copy,
+        flags: &str,
+        to: (f64, f64),
+        stroke: &str,
+        w: f64,
+    ) {
         say_to!(
             &mut self.body,
             "<path stroke-width=\"",
             Size(w),
-            "\" d=\"",
-            d,
+            "\" d=\"M ",
+            d1(from.0),
+            " ",
+            d1(from.1),
+            " A ",
+            r,
+            " ",
+            r,
+            " 0 ",
+            flags,
+            " ",
+            d1(to.0),
+            " ",
+            d1(to.1),
             "\" fill=\"none\" stroke=\"",
             stroke,
             "\"/>",
         );
     }
 
-    /// Text at a point; `anchor` is start, middle or end. The text is
-    /// escaped as it is written, so `format_args!` needs no String.
-    fn text(
-        &mut self,
-        (x, y): (f64, f64),
-        anchor: &str,
-        size: f64,
-        fill: &str,
-        text: impl fmt::Display,
-    ) {
+    /// Text at a point; `anchor` is start, middle or end. The text's pieces
+    /// are written in place and escaped after, only if they need it (they
+    /// are numbers and the drawings' own words, so almost never).
+    fn text(&mut self, (x, y): (f64, f64), anchor: &str, size: f64, fill: &str, text: impl Piece) {
         say_to!(
             &mut self.body,
             "<text x=\"",
@@ -304,25 +308,49 @@ impl Svg {
             fill,
             "\">",
         );
-        let _ = write!(Escaping(&mut self.body), "{text}");
+        let start = self.body.len();
+        say_to!(&mut self.body, text);
+        let written = &self.body.as_bytes()[start..];
+        if Escapes::Html.clean_run(written) < written.len() {
+            let raw = self.body.split_off(start);
+            push_escaped(&mut self.body, &raw);
+        }
         self.body.push_str("</text>");
     }
 
     fn finish(self, id: &str, title: &str, desc: &str) -> String {
         let mut out = String::with_capacity(self.body.len() + 512 + title.len() + desc.len());
         let (w, h) = (Fixed(self.width, 0), Fixed(self.height, 0));
-        let _ = write!(
-            out,
-            "<svg xmlns=\"http://www.w3.org/2000/svg\" class=\"drawing\" viewBox=\"0 0 {w} {h}\" \
-             width=\"{w}\" height=\"{h}\" role=\"img\" aria-labelledby=\"{id}-t {id}-d\" \
-             font-family=\"system-ui, sans-serif\"><title id=\"{id}-t\">",
+        say_to!(
+            &mut out,
+            "<svg xmlns=\"http://www.w3.org/2000/svg\" class=\"drawing\" viewBox=\"0 0 ",
+            w,
+            " ",
+            h,
+            "\" width=\"",
+            w,
+            "\" height=\"",
+            h,
+            "\" role=\"img\" aria-labelledby=\"",
+            id,
+            "-t ",
+            id,
+            "-d\" font-family=\"system-ui, sans-serif\"><title id=\"",
+            id,
+            "-t\">",
         );
         push_escaped(&mut out, title);
         say_to!(&mut out, "</title><desc id=\"", id, "-d\">");
         push_escaped(&mut out, desc);
-        let _ = write!(
-            out,
-            "</desc><rect width=\"{w}\" height=\"{h}\" fill=\"{PAPER}\"/>"
+        say_to!(
+            &mut out,
+            "</desc><rect width=\"",
+            w,
+            "\" height=\"",
+            h,
+            "\" fill=\"",
+            PAPER,
+            "\"/>",
         );
         out.push_str(&self.body);
         out.push_str("</svg>");
@@ -456,7 +484,7 @@ pub fn free_body(report: &Report, claim: &Claim) -> Drawing {
         "end",
         12.0,
         INK,
-        format_args!("weight {} N", Sig3(f.weight)),
+        ("weight ", Sig3(f.weight), " N"),
     );
     if f.unbalanced > 0.0 {
         svg.line(vertical_tip, thrust_tip, MUTED, 1.0, true);
@@ -467,7 +495,7 @@ pub fn free_body(report: &Report, claim: &Claim) -> Drawing {
             "end",
             11.0,
             MUTED,
-            format_args!("upward part {} N", Sig3(f.weight)),
+            ("upward part ", Sig3(f.weight), " N"),
         );
         svg.arrow(centre, horizontal_tip, FORCE, 2.5, true);
         svg.text(
@@ -475,22 +503,12 @@ pub fn free_body(report: &Report, claim: &Claim) -> Drawing {
             "start",
             12.0,
             FORCE,
-            format_args!("unbalanced {} N", Sig3(f.unbalanced)),
+            ("unbalanced ", Sig3(f.unbalanced), " N"),
         );
         // The tilt angle, between the vertical and the thrust.
         let r = 34.0;
         let end = (centre.0 + r * theta.sin(), centre.1 - r * theta.cos());
-        svg.path(
-            &format!(
-                "M {} {} A {r} {r} 0 0 1 {} {}",
-                d1(centre.0),
-                d1(centre.1 - r),
-                d1(end.0),
-                d1(end.1)
-            ),
-            INK,
-            1.2,
-        );
+        svg.arc((centre.0, centre.1 - r), r, "0 1", end, INK, 1.2);
         let mid = theta / 2.0;
         svg.text(
             (
@@ -500,7 +518,7 @@ pub fn free_body(report: &Report, claim: &Claim) -> Drawing {
             "start",
             11.0,
             INK,
-            format_args!("tilt {} deg", Sig3(f.tilt_deg)),
+            ("tilt ", Sig3(f.tilt_deg), " deg"),
         );
     }
     svg.arrow(centre, thrust_tip, THRUST, 3.0, false);
@@ -509,35 +527,36 @@ pub fn free_body(report: &Report, claim: &Claim) -> Drawing {
         "start",
         12.0,
         THRUST,
-        format_args!("thrust {} N", Sig3(f.thrust)),
+        ("thrust ", Sig3(f.thrust), " N"),
     );
 
     // Scale bar, bottom right.
     let step = nice_step(f.weight * 1.5);
     let bar = step * scale;
     svg.line((330.0 - bar, 265.0), (330.0, 265.0), INK, 2.0, false);
-    svg.text(
-        (330.0, 258.0),
-        "end",
-        11.0,
-        INK,
-        format_args!("{} N", Sig3(step)),
-    );
+    svg.text((330.0, 258.0), "end", 11.0, INK, ("", Sig3(step), " N"));
 
     let caption = if f.unbalanced > 0.0 {
-        format!(
-            "Side view, to scale ({} N per bar). Tilted {} deg, the rotors must push {} N to carry the {} N weight, and the forward part of that push, {} N, has nothing to balance it in still air: the craft would accelerate forward.",
+        say!(
+            "Side view, to scale (",
             Sig3(step),
+            " N per bar). Tilted ",
             Sig3(f.tilt_deg),
+            " deg, the rotors must push ",
             Sig3(f.thrust),
+            " N to carry the ",
             Sig3(f.weight),
-            Sig3(f.unbalanced)
+            " N weight, and the forward part of that push, ",
+            Sig3(f.unbalanced),
+            " N, has nothing to balance it in still air: the craft would accelerate forward.",
         )
     } else {
-        format!(
-            "Side view, to scale ({} N per bar). Level, the rotors carry the {} N weight straight up; no force is left over.",
+        say!(
+            "Side view, to scale (",
             Sig3(step),
-            Sig3(f.weight)
+            " N per bar). Level, the rotors carry the ",
+            Sig3(f.weight),
+            " N weight straight up; no force is left over.",
         )
     };
     Drawing {
@@ -610,7 +629,7 @@ pub fn thrust_bar(report: &Report) -> Drawing {
         svg.rect(BAR_X, y + 2.0, end - BAR_X, 18.0, FILL_A, THRUST);
         let hover_x = x_of(available * hover_share);
         svg.line((hover_x, y - 1.0), (hover_x, y + 23.0), INK, 2.5, false);
-        bar_label(&mut svg, end, y + 15.0, &format!("{} N", Sig3(*available)));
+        bar_label(&mut svg, end, y + 15.0, &say!(Sig3(*available), " N"));
     }
     let wx = x_of(weight);
     svg.line((wx, top - 8.0), (wx, bottom), FORCE, 2.0, true);
@@ -619,7 +638,7 @@ pub fn thrust_bar(report: &Report) -> Drawing {
         "middle",
         11.0,
         FORCE,
-        format_args!("weight {} N", Sig3(weight)),
+        ("weight ", Sig3(weight), " N"),
     );
     axis(&mut svg, max, bottom, "newtons");
     svg.text(
@@ -627,15 +646,18 @@ pub fn thrust_bar(report: &Report) -> Drawing {
         "start",
         10.5,
         INK,
-        format_args!(
-            "bar: all rotors at full power; solid mark: {} % of it, the most to hover on",
-            Fixed(hover_share * 100.0, 0)
+        (
+            "bar: all rotors at full power; solid mark: ",
+            Fixed(hover_share * 100.0, 0),
+            " % of it, the most to hover on",
         ),
     );
-    let caption = format!(
-        "Bars to scale: the thrust all rotors give at full power under each set of assumptions. The dashed line is the weight, {} N; the solid mark on each bar is {} % of that bar, the most a craft should spend just to hover.",
+    let caption = say!(
+        "Bars to scale: the thrust all rotors give at full power under each set of assumptions. The dashed line is the weight, ",
         Sig3(weight),
-        Fixed(hover_share * 100.0, 0)
+        " N; the solid mark on each bar is ",
+        Fixed(hover_share * 100.0, 0),
+        " % of that bar, the most a craft should spend just to hover.",
     );
     Drawing {
         id: ID,
@@ -687,7 +709,7 @@ pub fn energy_bar(report: &Report) -> Drawing {
             &mut svg,
             end,
             y + 11.0,
-            &format!("stored {} Wh", Sig3(*stored)),
+            &say!("stored ", Sig3(*stored), " Wh"),
         );
         if let Some(needed) = needed {
             let end = x_of(*needed);
@@ -696,7 +718,7 @@ pub fn energy_bar(report: &Report) -> Drawing {
                 &mut svg,
                 end,
                 y + 28.0,
-                &format!("needed {} Wh", Sig3(*needed)),
+                &say!("needed ", Sig3(*needed), " Wh"),
             );
         }
     }
@@ -709,9 +731,10 @@ pub fn energy_bar(report: &Report) -> Drawing {
         "upper bar: usable energy stored; lower bar: energy the claim needs",
     );
     let caption = match claimed_min {
-        Some(min) if rows.iter().any(|r| r.2.is_some()) => format!(
-            "Bars to scale: the battery's usable energy under each set of assumptions, and the energy hovering for the claimed {} min takes at that set's hover power.",
-            Sig3(min)
+        Some(min) if rows.iter().any(|r| r.2.is_some()) => say!(
+            "Bars to scale: the battery's usable energy under each set of assumptions, and the energy hovering for the claimed ",
+            Sig3(min),
+            " min takes at that set's hover power.",
         ),
         _ => "Bars to scale: the battery's usable energy under each set of assumptions. No flight time is claimed, so no energy needed is drawn.".to_string(),
     };
@@ -731,40 +754,46 @@ pub fn rotor_layout(claim: &Claim, plan: Option<&layout::Plan>) -> Drawing {
         return Drawing::omitted(
             ID,
             TITLE,
-            &format!(
-                "the sheet does not say how its {} rotors are arranged (give rotors.layout and rotors.arm, or layout = \"custom\" with [[rotors.at]]).",
-                claim.rotors.count
+            &say!(
+                "the sheet does not say how its ",
+                claim.rotors.count,
+                " rotors are arranged (give rotors.layout and rotors.arm, or layout = \"custom\" with [[rotors.at]]).",
             ),
         );
     };
     let (svg, scale_note) = draw_plan(plan, None);
-    let mut caption = format!(
-        "Top view, to scale ({scale_note} per bar), front up: {} rotor{}, numbered from the nose clockwise, each marked with its spin as seen from above.",
+    let axes: Vec<&str> = plan.lacking.iter().map(|a| a.id()).collect();
+    let caption = say!(
+        "Top view, to scale (",
+        &scale_note,
+        " per bar), front up: ",
         plan.rotors.len(),
-        if plan.rotors.len() == 1 { "" } else { "s" }
+        if plan.rotors.len() == 1 {
+            " rotor"
+        } else {
+            " rotors"
+        },
+        ", numbered from the nose clockwise, each marked with its spin as seen from above.",
+        plan.arm_assumed.then_some((
+            " The sheet gives no arm length, so positions are drawn to a ",
+            layout::STAND_IN_ARM_MM,
+            " mm arm.",
+        )),
+        plan.diameter
+            .is_none()
+            .then_some(" The sheet gives no rotor diameter; dashed discs are not to scale."),
+        (claim.rotors.spins.is_none() && claim.rotors.at.is_empty())
+            .then_some(" Spins are not stated; the usual alternating pattern is drawn."),
+        plan.rotors
+            .iter()
+            .any(|r| r.tilts)
+            .then_some(" Rotors marked \"tilts\" have a tilt actuator."),
+        (!axes.is_empty()).then_some((
+            " At hover these rotors cannot command: ",
+            Joined(&axes, ", "),
+            ".",
+        )),
     );
-    if plan.arm_assumed {
-        caption.push_str(&format!(
-            " The sheet gives no arm length, so positions are drawn to a {} mm arm.",
-            layout::STAND_IN_ARM_MM
-        ));
-    }
-    if plan.diameter.is_none() {
-        caption.push_str(" The sheet gives no rotor diameter; dashed discs are not to scale.");
-    }
-    if claim.rotors.spins.is_none() && claim.rotors.at.is_empty() {
-        caption.push_str(" Spins are not stated; the usual alternating pattern is drawn.");
-    }
-    if plan.rotors.iter().any(|r| r.tilts) {
-        caption.push_str(" Rotors marked \"tilts\" have a tilt actuator.");
-    }
-    if !plan.lacking.is_empty() {
-        let axes: Vec<&str> = plan.lacking.iter().map(|a| a.id()).collect();
-        caption.push_str(&format!(
-            " At hover these rotors cannot command: {}.",
-            axes.join(", ")
-        ));
-    }
     Drawing {
         id: ID,
         title: TITLE,
@@ -796,18 +825,26 @@ pub fn rotor_failure(claim: &Claim, plan: Option<&layout::Plan>) -> Option<Drawi
     let typical = acai[2];
     // An index within rounding of zero is zero: no margin at all for some moment.
     let caption = if typical > ZERO_AUTHORITY {
-        format!(
-            "Top view ({scale_note} per bar) with rotor {lost} stopped, the loss that hurts most. The rest can still hold a hover: their available control authority index (Du et al. 2015) stays at {} with typical hardware.",
-            Sig3(typical)
+        say!(
+            "Top view (",
+            &scale_note,
+            " per bar) with rotor ",
+            lost,
+            " stopped, the loss that hurts most. The rest can still hold a hover: their available control authority index (Du et al. 2015) stays at ",
+            Sig3(typical),
+            " with typical hardware.",
         )
     } else {
-        let index = if typical.abs() <= ZERO_AUTHORITY {
-            "zero".to_string()
-        } else {
-            format!("{}, below zero", Sig3(typical))
-        };
-        format!(
-            "Top view ({scale_note} per bar) with rotor {lost} stopped, the loss that hurts most. The rest cannot hold a hover: their available control authority index (Du et al. 2015) is {index} with typical hardware, so some moment the craft needs is out of reach."
+        let below_zero =
+            (typical.abs() > ZERO_AUTHORITY).then_some((Sig3(typical), ", below zero", ""));
+        say!(
+            "Top view (",
+            &scale_note,
+            " per bar) with rotor ",
+            lost,
+            " stopped, the loss that hurts most. The rest cannot hold a hover: their available control authority index (Du et al. 2015) is ",
+            say::Or(below_zero, "zero"),
+            " with typical hardware, so some moment the craft needs is out of reach.",
         )
     };
     Some(Drawing {
@@ -878,9 +915,9 @@ fn draw_plan(plan: &layout::Plan, lost: Option<usize>) -> (Svg, String) {
         let tilts = if r.tilts && coaxial { " tilts" } else { "" };
         let label = if coaxial {
             let level = if i == 0 { "upper" } else { "lower" };
-            format!("{} {level} {spin}{tilts}", i + 1)
+            say!(i + 1, " ", level, " ", spin, tilts)
         } else {
-            format!("{} {spin}", i + 1)
+            say!(i + 1, " ", spin)
         };
         if r.tilts && !coaxial {
             svg.text((c.0, c.1 + rad + 12.0), "middle", 10.5, INK, "tilts");
@@ -898,7 +935,7 @@ fn draw_plan(plan: &layout::Plan, lost: Option<usize>) -> (Svg, String) {
     let step_m = nice_step(extent * 2.0);
     let bar = step_m * scale;
     svg.line((300.0 - bar, 305.0), (300.0, 305.0), INK, 2.0, false);
-    let step_label = format!("{} mm", Sig3(step_m * 1000.0));
+    let step_label = say!(Sig3(step_m * 1000.0), " mm");
     svg.text((300.0, 298.0), "end", 11.0, INK, &step_label);
     (svg, step_label)
 }
@@ -918,19 +955,8 @@ fn spin_arrow(svg: &mut Svg, (cx, cy): (f64, f64), r: f64, spin: Spin) {
         (cx + r * t.cos(), cy + r * t.sin())
     };
     let (s, e) = (point(a0), point(a1));
-    let sweep_flag = if sweep_cw { 1 } else { 0 };
-    svg.path(
-        &format!(
-            "M {} {} A {r} {r} 0 1 {sweep_flag} {} {}",
-            d1(s.0),
-            d1(s.1),
-            d1(e.0),
-            d1(e.1),
-            r = d1(r)
-        ),
-        THRUST,
-        1.5,
-    );
+    let flags = if sweep_cw { "1 1" } else { "1 0" };
+    svg.arc(s, d1(r), flags, e, THRUST, 1.5);
     // Head tangent to the arc at its end, pointing along the turn.
     let t = a1.to_radians();
     let dir = if sweep_cw { 1.0 } else { -1.0 };
