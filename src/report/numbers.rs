@@ -149,17 +149,9 @@ const POW10_F64: [f64; 13] = {
     t
 };
 
-/// `v` to `places` decimals in `buf`, starting at the index returned, or
-/// `None` where the standard formatter must decide (see [`Fixed`]).
-fn fast_fixed(v: f64, places: usize, digits: &mut Digits) -> Option<usize> {
-    let buf = &mut digits.0;
-    let &unit = POW10.get(places)?;
-    // Below 1e9 the digits fit the buffer (see below). (The powers of ten
-    // as floats: converting a u64 takes a dozen instructions.)
-    let scaled = v.abs() * POW10_F64[places];
-    if scaled.is_nan() || scaled >= 1e9 {
-        return None;
-    }
+/// `v * 10^places` rounded to an integer from the exact binary value of `v`.
+#[inline(never)]
+fn exactly_rounded(v: f64, places: usize, unit: u64) -> Option<u64> {
     // v is m * 2^e exactly (IEEE 754 binary64), so v * 10^places is
     // m * 10^places / 2^shift, and the bits shifted out say exactly which way
     // to round: up past half, to even on a tie, as the standard formatter
@@ -171,17 +163,45 @@ fn fast_fixed(v: f64, places: usize, digits: &mut Digits) -> Option<usize> {
         _ => ((bits & ((1 << 52) - 1)) | (1 << 52), biased - 1075),
     };
     if e >= 0 {
-        // |v| >= 2^52: never below the bound above.
+        // |v| >= 2^52: never below the bound the caller checks.
         return None;
     }
     let shift = e.unsigned_abs();
     // m < 2^53: with up to three places (10^3 < 2^10) the product fits 64
     // bits, which is what the drawings and tables use; else 128 (< 2^93).
-    let n = if places <= 3 {
+    Some(if places <= 3 {
         round_shifted(m * unit, shift, 64)
     } else {
         round_shifted(u128::from(m) * u128::from(unit), shift, 128) as u64
+    })
+}
+
+/// `v` to `places` decimals in `buf`, starting at the index returned, or
+/// `None` where the standard formatter must decide (see [`Fixed`]).
+#[inline]
+fn fast_fixed(v: f64, places: usize, digits: &mut Digits) -> Option<usize> {
+    let &unit = POW10.get(places)?;
+    // Below 1e9 the digits fit the buffer (see below). (The powers of ten
+    // as floats: converting a u64 takes a dozen instructions.)
+    let scaled = v.abs() * POW10_F64[places];
+    if scaled.is_nan() || scaled >= 1e9 {
+        return None;
+    }
+    // The product is off the exact value v * 10^places by half an ulp at
+    // most, under 1e-7 below 1e9; unless its fraction is that close to a
+    // half, rounding it rounds the exact value the same way.
+    // (Through i64: x86-64 converts signed integers in one instruction.)
+    let whole = scaled as i64;
+    let fraction = scaled - whole as f64;
+    let n = if (fraction - 0.5).abs() > 1e-6 {
+        whole as u64 + u64::from(fraction > 0.5)
+    } else {
+        exactly_rounded(v, places, unit)?
     };
+    if places == 1 && n < 100_000 {
+        return Some(tenths(n, v.is_sign_negative(), digits));
+    }
+    let buf = &mut digits.0;
     // Whole part and decimals; the usual precisions divide by a constant,
     // which the compiler turns into a multiplication.
     let (mut whole, mut decimals) = match places {
@@ -221,6 +241,38 @@ fn fast_fixed(v: f64, places: usize, digits: &mut Digits) -> Option<usize> {
         buf[at] = b'-';
     }
     Some(at)
+}
+
+/// `n` tenths (below 10^5, a coordinate of the drawings under 10 000) as
+/// `{:.1}` writes them, in `digits` from the index returned: the general
+/// loop above, unrolled, since a verdict page writes some three hundred.
+fn tenths(n: u64, negative: bool, digits: &mut Digits) -> usize {
+    let buf = &mut digits.0;
+    let (whole, tenth) = ((n / 10) as usize, (n % 10) as u8);
+    buf[END - 1] = b'0' + tenth;
+    buf[END - 2] = b'.';
+    let mut at = END - 2;
+    let mut pair = |at: &mut usize, two: usize| {
+        *at -= 2;
+        buf[*at..*at + 2].copy_from_slice(&DIGIT_PAIRS[two * 2..two * 2 + 2]);
+    };
+    let high = if whole >= 100 {
+        pair(&mut at, whole % 100);
+        whole / 100
+    } else {
+        whole
+    };
+    if high >= 10 {
+        pair(&mut at, high);
+    } else if high > 0 || whole == 0 {
+        at -= 1;
+        buf[at] = b'0' + high as u8;
+    }
+    if negative {
+        at -= 1;
+        buf[at] = b'-';
+    }
+    at
 }
 
 /// `v` to three significant figures, no exponent ("5.07", "1235",
@@ -334,6 +386,16 @@ mod tests {
             f64::MIN_POSITIVE,
             999_999_999.5,
             99_999_999.95,
+            // Where the unrolled writer of tenths hands over to the loop.
+            9_999.94,
+            9_999.95,
+            -9_999.96,
+            10_000.05,
+            999.95,
+            99.96,
+            9.95,
+            0.95,
+            -0.96,
         ]);
         let mut x: u64 = 0x9E37_79B9_7F4A_7C15;
         for _ in 0..20_000 {
