@@ -34,8 +34,72 @@ impl Fixed {
 }
 
 /// Appends [`Fixed`]`(v, places)` to `out` straight from the digit buffer,
-/// for the drawings, which write hundreds of coordinates a page.
+/// for the drawings, which write hundreds of coordinates a page. One
+/// decimal, what every coordinate has, is written inline ([`push_tenths`]).
+#[inline]
 pub fn push_fixed(out: &mut String, v: f64, places: usize) {
+    if places == 1 {
+        push_tenths(out, v);
+    } else {
+        push_fixed_any(out, v, places);
+    }
+}
+
+/// [`Fixed`]`(v, 1)` appended to `out`. Below 10^4, and away from a tie
+/// (see [`fast_fixed`]), the digits are worked out in a few instructions
+/// and eight bytes copied at once; anything else goes the general way.
+#[inline(always)]
+fn push_tenths(out: &mut String, v: f64) {
+    let scaled = v.abs() * 10.0;
+    if scaled < 99_999.0 {
+        let whole = scaled as i64;
+        let fraction = scaled - whole as f64;
+        if (fraction - 0.5).abs() > 1e-6 {
+            let n = whole as u64 + u64::from(fraction > 0.5);
+            let (bytes, len) = tenths_ascii(n, v.is_sign_negative());
+            // SAFETY: every byte written is ASCII (digits, '.', '-', and the
+            // zeros after them), which is UTF-8, and the zeros are cut off.
+            let vec = unsafe { out.as_mut_vec() };
+            let at = vec.len();
+            vec.extend_from_slice(&bytes);
+            vec.truncate(at + len);
+            return;
+        }
+    }
+    push_fixed_any(out, v, 1);
+}
+
+/// `n` tenths (n < 10^5) as `{:.1}` writes them, from the first byte, and
+/// the length: at most a sign, four digits, the point and one decimal.
+#[inline(always)]
+fn tenths_ascii(n: u64, negative: bool) -> ([u8; 8], usize) {
+    let (whole, tenth) = ((n / 10) as usize, (n % 10) as u8);
+    let (high, low) = (whole / 100, whole % 100);
+    let pair = |k: usize| [DIGIT_PAIRS[2 * k], DIGIT_PAIRS[2 * k + 1]];
+    let mut b = [b'-', 0, 0, 0, 0, 0, 0, 0];
+    let at = usize::from(negative);
+    let end = if whole >= 1000 {
+        [b[at], b[at + 1]] = pair(high);
+        [b[at + 2], b[at + 3]] = pair(low);
+        at + 4
+    } else if whole >= 100 {
+        b[at] = b'0' + high as u8;
+        [b[at + 1], b[at + 2]] = pair(low);
+        at + 3
+    } else if whole >= 10 {
+        [b[at], b[at + 1]] = pair(low);
+        at + 2
+    } else {
+        b[at] = b'0' + low as u8;
+        at + 1
+    };
+    b[end] = b'.';
+    b[end + 1] = b'0' + tenth;
+    (b, end + 2)
+}
+
+/// [`push_fixed`] for any number of places, through [`fast_fixed`].
+fn push_fixed_any(out: &mut String, v: f64, places: usize) {
     let mut buf = Digits::new();
     match fast_fixed(v, places, &mut buf) {
         // Where there is room, sixteen bytes from the first digit and the
@@ -198,9 +262,6 @@ fn fast_fixed(v: f64, places: usize, digits: &mut Digits) -> Option<usize> {
     } else {
         exactly_rounded(v, places, unit)?
     };
-    if places == 1 && n < 100_000 {
-        return Some(tenths(n, v.is_sign_negative(), digits));
-    }
     let buf = &mut digits.0;
     // Whole part and decimals; the usual precisions divide by a constant,
     // which the compiler turns into a multiplication.
@@ -241,38 +302,6 @@ fn fast_fixed(v: f64, places: usize, digits: &mut Digits) -> Option<usize> {
         buf[at] = b'-';
     }
     Some(at)
-}
-
-/// `n` tenths (below 10^5, a coordinate of the drawings under 10 000) as
-/// `{:.1}` writes them, in `digits` from the index returned: the general
-/// loop above, unrolled, since a verdict page writes some three hundred.
-fn tenths(n: u64, negative: bool, digits: &mut Digits) -> usize {
-    let buf = &mut digits.0;
-    let (whole, tenth) = ((n / 10) as usize, (n % 10) as u8);
-    buf[END - 1] = b'0' + tenth;
-    buf[END - 2] = b'.';
-    let mut at = END - 2;
-    let mut pair = |at: &mut usize, two: usize| {
-        *at -= 2;
-        buf[*at..*at + 2].copy_from_slice(&DIGIT_PAIRS[two * 2..two * 2 + 2]);
-    };
-    let high = if whole >= 100 {
-        pair(&mut at, whole % 100);
-        whole / 100
-    } else {
-        whole
-    };
-    if high >= 10 {
-        pair(&mut at, high);
-    } else if high > 0 || whole == 0 {
-        at -= 1;
-        buf[at] = b'0' + high as u8;
-    }
-    if negative {
-        at -= 1;
-        buf[at] = b'-';
-    }
-    at
 }
 
 /// `v` to three significant figures, no exponent ("5.07", "1235",
