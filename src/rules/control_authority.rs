@@ -237,10 +237,27 @@ impl Piece for WhyRank<'_> {
 }
 
 pub fn check(claim: &Claim) -> Finding {
-    let an = match analyse(claim) {
-        Ok(an) => an,
-        Err(needs) => return Finding::not_assessed(ID, needs),
-    };
+    match analyse(claim) {
+        Ok(an) => assess(claim, &an),
+        Err(needs) => Finding::not_assessed(ID, needs),
+    }
+}
+
+/// The finding and the intact top view ([`layout_view`] with no rotor lost)
+/// from one analysis: the verdict page draws the rotors beside the report,
+/// and the analysis (an SVD among it) need not run twice.
+pub fn check_with_view(claim: &Claim) -> (Finding, Option<LayoutView>) {
+    match analyse(claim) {
+        Ok(an) => {
+            let view = view_of(&an, &[], &an.authority);
+            (assess(claim, &an), Some(view))
+        }
+        Err(needs) => (Finding::not_assessed(ID, needs), None),
+    }
+}
+
+/// The finding of an analysis.
+fn assess(claim: &Claim, an: &Analysis) -> Finding {
     let n = an.placements.len();
     let a = &an.authority;
     let rank = fixed(
@@ -509,14 +526,18 @@ pub struct LayoutView {
 pub fn layout_view(claim: &Claim, lost: &[usize]) -> Option<LayoutView> {
     let an = analyse(claim).ok()?;
     let lost: Vec<usize> = lost.iter().filter_map(|i| i.checked_sub(1)).collect();
-    let authority = if lost.is_empty() {
-        an.authority
-    } else {
-        let share = an.weight / an.placements.len() as f64;
-        let e = control::effectiveness(&an.placements, share, an.torque_ratio(Tier::Typical));
-        control::authority(&e.without(&lost))
-    };
-    Some(LayoutView {
+    if lost.is_empty() {
+        return Some(view_of(&an, &lost, &an.authority));
+    }
+    let share = an.weight / an.placements.len() as f64;
+    let e = control::effectiveness(&an.placements, share, an.torque_ratio(Tier::Typical));
+    Some(view_of(&an, &lost, &control::authority(&e.without(&lost))))
+}
+
+/// The top view of an analysis, `lost` (indices from 0) marked, with the
+/// authority of the rotors left.
+fn view_of(an: &Analysis, lost: &[usize], authority: &Authority) -> LayoutView {
+    LayoutView {
         rotors: an
             .placements
             .iter()
@@ -535,8 +556,8 @@ pub fn layout_view(claim: &Claim, lost: &[usize]) -> Option<LayoutView> {
             })
             .collect(),
         rank: authority.rank,
-        lacking: authority.lacking,
-    })
+        lacking: authority.lacking.clone(),
+    }
 }
 
 /// The single rotor (numbered from 1) whose loss leaves the least control

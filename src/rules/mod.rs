@@ -48,3 +48,23 @@ pub fn run_all(claim: &Claim) -> Report {
         REGISTRY.iter().map(|r| (r.check)(claim)).collect(),
     )
 }
+
+/// [`run_all`], and the top view of the rotors that the control-authority
+/// rule worked out on the way ([`control_authority::check_with_view`]), for
+/// the verdict page, which draws it.
+pub fn run_all_with_layout(claim: &Claim) -> (Report, Option<control_authority::LayoutView>) {
+    let mut layout = None;
+    let findings = REGISTRY
+        .iter()
+        .map(|r| {
+            if r.id == control_authority::ID {
+                let (finding, view) = control_authority::check_with_view(claim);
+                layout = view;
+                finding
+            } else {
+                (r.check)(claim)
+            }
+        })
+        .collect();
+    (Report::new(claim.title.clone(), findings), layout)
+}

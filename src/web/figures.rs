@@ -11,7 +11,7 @@ use crate::catalog::tiers::{self, Tier};
 use crate::claim::{Claim, Spin};
 use crate::report::{Finding, Report};
 
-use crate::rules::control_authority;
+use crate::rules::control_authority::{self, LayoutView};
 
 use super::layout;
 use crate::report::say::{self, say, say_to, Joined, Piece};
@@ -47,9 +47,10 @@ impl Drawing {
 }
 
 /// Every drawing of a report, in page order.
-pub fn all(report: &Report, claim: &Claim) -> Vec<Drawing> {
-    // One plan for both top views: placing the rotors runs the control analysis.
-    let plan = layout::plan(claim);
+pub fn all(report: &Report, claim: &Claim, checked: Option<&LayoutView>) -> Vec<Drawing> {
+    // One plan for both top views, from the view the rule gave with the report
+    // where there is one (placing the rotors runs the control analysis).
+    let plan = layout::plan(claim, checked);
     [
         free_body(report, claim),
         thrust_bar(report),
@@ -1040,7 +1041,7 @@ mod tests {
     fn every_drawing_is_left_out_with_a_reason_when_the_report_is_empty() {
         let report = Report::new("t".into(), Vec::new());
         let claim = sheet("");
-        let drawings = all(&report, &claim);
+        let drawings = all(&report, &claim, None);
         let missing: Vec<&str> = drawings
             .iter()
             .filter(|d| d.svg.is_none())
@@ -1094,7 +1095,7 @@ mod tests {
         // Du, Quan, Yang, Cai (2015): a quadrotor that loses any rotor has ACAI < 0,
         // so the drawing must say the rest cannot hold a hover.
         let claim = sheet("max_thrust = \"600 g\"\n[claim]\nsurvives_rotor_failure = 1");
-        let d = rotor_failure(&claim, layout::plan(&claim).as_ref())
+        let d = rotor_failure(&claim, layout::plan(&claim, None).as_ref())
             .expect("drawn for a claimed failure");
         assert!(
             d.svg.as_ref().unwrap().contains(" stopped</text>"),
@@ -1103,7 +1104,7 @@ mod tests {
         );
         assert!(d.caption.contains("cannot hold a hover"), "{}", d.caption);
         let unclaimed = sheet("max_thrust = \"600 g\"");
-        assert!(rotor_failure(&unclaimed, layout::plan(&unclaimed).as_ref()).is_none());
+        assert!(rotor_failure(&unclaimed, layout::plan(&unclaimed, None).as_ref()).is_none());
     }
 
     #[test]
@@ -1115,7 +1116,7 @@ mod tests {
                     arm = \"275 mm\"\ndiameter = \"10 in\"\nmax_thrust = \"6.125 N\"\n\
                     [claim]\nsurvives_rotor_failure = 1";
         let claim = claim::parse(text, Format::Toml).unwrap();
-        let d = rotor_failure(&claim, layout::plan(&claim).as_ref()).unwrap();
+        let d = rotor_failure(&claim, layout::plan(&claim, None).as_ref()).unwrap();
         assert!(
             d.caption.contains("index (Du et al. 2015) is zero"),
             "{}",

@@ -13,7 +13,7 @@ use uom::si::length::{meter, millimeter};
 
 use crate::claim::{Claim, Spin};
 use crate::physics::control::{self, Axis};
-use crate::rules::control_authority;
+use crate::rules::control_authority::{self, LayoutView};
 
 /// One rotor in body axes, metres.
 #[derive(Debug, Clone, Copy, PartialEq)]
@@ -46,13 +46,24 @@ pub const STAND_IN_ARM_MM: f64 = 100.0;
 
 /// Places the rotors of a claim; `None` when the sheet does not say how they
 /// are arranged (a rotor count with no usual layout and no positions).
-pub fn plan(claim: &Claim) -> Option<Plan> {
+/// `checked` is the view the control-authority rule gave with the report
+/// ([`rules::run_all_with_layout`](crate::rules::run_all_with_layout));
+/// without it the rule's analysis runs here.
+pub fn plan(claim: &Claim, checked: Option<&LayoutView>) -> Option<Plan> {
     let rotors = &claim.rotors;
     let diameter = rotors
         .diameter
         .or(rotors.motor.map(|m| m.usual_prop()))
         .map(|d| d.get::<meter>());
-    if let Some(view) = control_authority::layout_view(claim, &[]) {
+    let analysed;
+    let view = match checked {
+        Some(view) => Some(view),
+        None => {
+            analysed = control_authority::layout_view(claim, &[]);
+            analysed.as_ref()
+        }
+    };
+    if let Some(view) = view {
         return Some(Plan {
             rotors: view
                 .rotors
@@ -67,7 +78,7 @@ pub fn plan(claim: &Claim) -> Option<Plan> {
                 .collect(),
             diameter,
             arm_assumed: false,
-            lacking: view.lacking,
+            lacking: view.lacking.clone(),
         });
     }
     let mut stand_in = rotors.clone();
@@ -98,6 +109,26 @@ mod tests {
     use super::*;
     use crate::claim::{self, Format};
 
+    fn plan_of(claim: &Claim) -> Option<Plan> {
+        plan(claim, None)
+    }
+
+    #[test]
+    fn the_view_the_rule_gives_with_the_report_plans_as_the_rule_run_here_does() {
+        for d in crate::claim::demo::DEMOS {
+            let claim = claim::parse_any(d.text).unwrap();
+            let (report, view) = crate::rules::run_all_with_layout(&claim);
+            assert_eq!(report, crate::rules::run_all(&claim), "{}", d.name);
+            assert_eq!(
+                view,
+                control_authority::layout_view(&claim, &[]),
+                "{}",
+                d.name
+            );
+            assert_eq!(plan(&claim, view.as_ref()), plan_of(&claim), "{}", d.name);
+        }
+    }
+
     fn claim_of(sheet_rotors: &str) -> Claim {
         let text = format!("title = \"t\"\n[craft]\nmass = \"300 g\"\n[rotors]\n{sheet_rotors}\n");
         claim::parse(&text, Format::Toml).unwrap()
@@ -107,7 +138,7 @@ mod tests {
     fn a_quad_x_puts_each_rotor_on_a_diagonal_at_arm_over_root_two() {
         // Plane geometry: a point at distance d and azimuth 45 deg has both
         // coordinates d / sqrt(2); rotor 1 is front right (y negative, REP 103).
-        let plan = plan(&claim_of("layout = \"quad-x\"\narm = \"100 mm\"")).unwrap();
+        let plan = plan_of(&claim_of("layout = \"quad-x\"\narm = \"100 mm\"")).unwrap();
         let s = 0.1 / 2f64.sqrt();
         let expect = [(s, -s), (-s, -s), (-s, s), (s, s)];
         assert_eq!(plan.rotors.len(), 4);
@@ -119,7 +150,7 @@ mod tests {
 
     #[test]
     fn a_preset_without_an_arm_is_drawn_to_the_stand_in_arm_and_flagged() {
-        let plan = plan(&claim_of(
+        let plan = plan_of(&claim_of(
             "layout = \"side-by-side\"\nspins = [\"ccw\", \"cw\"]",
         ))
         .unwrap();
@@ -131,7 +162,7 @@ mod tests {
 
     #[test]
     fn a_count_with_no_usual_layout_is_not_placed() {
-        assert!(plan(&claim_of("count = 5")).is_none());
+        assert!(plan_of(&claim_of("count = 5")).is_none());
     }
 
     #[test]
@@ -147,7 +178,7 @@ mod tests {
 
     #[test]
     fn custom_positions_are_kept() {
-        let plan = plan(&claim_of(
+        let plan = plan_of(&claim_of(
             "layout = \"custom\"\ncount = 2\n\
              [[rotors.at]]\nx = \"30 mm\"\ny = \"0 mm\"\nz = \"0 mm\"\nspin = \"ccw\"\n\
              [[rotors.at]]\nx = \"-30 mm\"\ny = \"10 mm\"\nz = \"0 mm\"\nspin = \"ccw\"",

@@ -148,7 +148,7 @@ pub async fn check(State(state): State<SharedState>, sub: Submission) -> Result<
             Err(errors) => return refused(&errors, StatusCode::UNPROCESSABLE_ENTITY),
         };
         return match claim::parse(&sheet, claim::Format::Toml) {
-            Ok(c) => verdict(&rules::run_all(&c), &c, Downloads { demo: None, sheet }),
+            Ok(c) => verdict(&c, Downloads { demo: None, sheet }),
             Err(claim::Error::Invalid(errors)) => {
                 refused(&errors, StatusCode::UNPROCESSABLE_ENTITY)
             }
@@ -164,17 +164,13 @@ pub async fn check(State(state): State<SharedState>, sub: Submission) -> Result<
         return Ok((StatusCode::UNPROCESSABLE_ENTITY, Html(page.render()?)).into_response());
     }
     match claim::parse_any(&sub.sheet) {
-        Ok(c) => {
-            let report = rules::run_all(&c);
-            verdict(
-                &report,
-                &c,
-                Downloads {
-                    demo: None,
-                    sheet: sub.sheet,
-                },
-            )
-        }
+        Ok(c) => verdict(
+            &c,
+            Downloads {
+                demo: None,
+                sheet: sub.sheet,
+            },
+        ),
         Err(e) => {
             let status = Error::Sheet(e.clone()).status();
             let errors = match e {
@@ -187,12 +183,12 @@ pub async fn check(State(state): State<SharedState>, sub: Submission) -> Result<
     }
 }
 
-fn verdict(
-    report: &crate::report::Report,
-    claim: &claim::Claim,
-    downloads: Downloads,
-) -> Result<Response, Error> {
-    Ok(Html(render_verdict(&VerdictPage::new(report, claim, downloads))?).into_response())
+/// The verdict page of a claim: the rules run once for the report and the
+/// rotors' top view.
+fn verdict(claim: &claim::Claim, downloads: Downloads) -> Result<Response, Error> {
+    let (report, layout) = rules::run_all_with_layout(claim);
+    let page = VerdictPage::new(&report, claim, layout.as_ref(), downloads);
+    Ok(Html(render_verdict(&page)?).into_response())
 }
 
 /// A verdict page is 30 to 40 kB with its drawings, far above the size
@@ -215,7 +211,7 @@ pub fn demo_page(
         demo: Some(d.name),
         sheet: d.text.to_string(),
     };
-    render_verdict(&VerdictPage::new(report, claim, downloads))
+    render_verdict(&VerdictPage::new(report, claim, None, downloads))
 }
 
 /// `GET /demo/{name}`: a demo's verdict page, checked and rendered at

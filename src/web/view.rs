@@ -13,7 +13,7 @@ use crate::catalog::tiers::{self, Tier};
 use crate::claim::Claim;
 use crate::report::scan::Escapes;
 use crate::report::{sig3, Figure, Finding, Report, Sig3, Verdict};
-use crate::rules;
+use crate::rules::{self, control_authority::LayoutView};
 use crate::sources::{self, Source};
 
 use super::figures::{self, Drawing};
@@ -337,14 +337,21 @@ impl<'a> VerdictPage<'a> {
         Text(&self.summary)
     }
 
-    pub fn new(report: &'a Report, claim: &'a Claim, downloads: Downloads) -> VerdictPage<'a> {
+    /// The page of a report; `layout` is the rotors' top view the rules gave
+    /// with it, if they did ([`rules::run_all_with_layout`]).
+    pub fn new(
+        report: &'a Report,
+        claim: &'a Claim,
+        layout: Option<&LayoutView>,
+        downloads: Downloads,
+    ) -> VerdictPage<'a> {
         VerdictPage {
             title: Text(&report.title),
             source: claim.source.as_deref().map(Text),
             verdict: VerdictView::of(report.verdict),
             summary: summary(report),
             findings: report.findings.iter().map(FindingView::of).collect(),
-            drawings: figures::all(report, claim),
+            drawings: figures::all(report, claim, layout),
             tiers: Tier::ALL.map(|t| Text(t.label())),
             cautions: report.cautions.iter().map(|c| Text(c)).collect(),
             engine: Text(report.engine),
