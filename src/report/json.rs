@@ -56,7 +56,7 @@ fn write(report: &Report, pretty: bool) -> Vec<u8> {
 fn finding(w: &mut Writer, f: &Finding) {
     w.open(b'{');
     w.key("rule");
-    w.str(f.rule);
+    w.plain(f.rule);
     w.key("verdict");
     w.plain(f.verdict.id());
     w.key("headline");
@@ -73,14 +73,19 @@ fn finding(w: &mut Writer, f: &Finding) {
     w.key("assumptions");
     w.strings(f.assumptions.iter().map(String::as_str));
     w.key("sources");
-    w.strings(f.sources.iter().copied());
+    w.open(b'[');
+    for id in &f.sources {
+        w.item();
+        w.plain(id);
+    }
+    w.close(b']');
     w.close(b'}');
 }
 
 fn figure(w: &mut Writer, g: &Figure) {
     w.open(b'{');
     w.key("key");
-    w.str(g.key);
+    w.plain(g.key);
     w.key("label");
     w.str(&g.label);
     if let Some(t) = g.tier {
@@ -90,7 +95,7 @@ fn figure(w: &mut Writer, g: &Figure) {
     w.key("value");
     w.number(g.value);
     w.key("unit");
-    w.str(g.unit);
+    w.plain(g.unit);
     w.close(b'}');
 }
 
@@ -166,7 +171,8 @@ impl Writer {
     }
 
     /// A string of ours with nothing to escape (a verdict's or tier's id,
-    /// the schema, the engine: the tests hold each set to that), copied
+    /// the schema, the engine, and the rule ids, figure keys, units and
+    /// source ids the rules write: the tests hold each to that), copied
     /// without a look.
     #[inline(always)]
     fn plain(&mut self, s: &'static str) {
@@ -259,6 +265,45 @@ mod tests {
             .chain(Tier::ALL.map(Tier::id));
         for s in plain {
             assert_eq!(Escapes::Json.clean_run(s.as_bytes()), s.len(), "{s}");
+        }
+    }
+
+    #[test]
+    fn the_ids_keys_and_units_of_every_report_need_no_escape() {
+        // Figure keys follow the contract's pattern ^[a-z0-9]+(_[a-z0-9]+)*$
+        // (DESIGN "Report v1"); units and ids are the rules' own words. The
+        // debug build asserts the same of every report any test writes.
+        let key_pattern = |k: &str| {
+            !k.is_empty()
+                && k.split('_').all(|part| {
+                    !part.is_empty()
+                        && part
+                            .bytes()
+                            .all(|b| b.is_ascii_lowercase() || b.is_ascii_digit())
+                })
+        };
+        let sources: Vec<&str> = crate::sources::SOURCES.iter().map(|s| s.id).collect();
+        for d in crate::claim::demo::DEMOS {
+            let report = crate::rules::run_all(&crate::claim::parse_any(d.text).unwrap());
+            for f in &report.findings {
+                assert_eq!(Escapes::Json.clean_run(f.rule.as_bytes()), f.rule.len());
+                for id in &f.sources {
+                    assert!(sources.contains(id), "{id}");
+                    assert_eq!(Escapes::Json.clean_run(id.as_bytes()), id.len(), "{id}");
+                }
+                for g in &f.figures {
+                    assert!(key_pattern(g.key), "{}", g.key);
+                    assert_eq!(Escapes::Json.clean_run(g.unit.as_bytes()), g.unit.len());
+                }
+            }
+        }
+        for s in crate::sources::SOURCES {
+            assert_eq!(
+                Escapes::Json.clean_run(s.id.as_bytes()),
+                s.id.len(),
+                "{}",
+                s.id
+            );
         }
     }
 
