@@ -32,18 +32,38 @@ pub(super) fn read(text: &str) -> Option<Node<'_>> {
     let mut root = Table::default();
     // Where key/value lines go: entry indices from the root, the last element of
     // an array of tables at each step.
-    let mut current: Vec<usize> = Vec::new();
+    let mut current = Steps::default();
     loop {
         reader.skip_blank();
         match reader.peek() {
             None => break,
             Some(b'[') => current = reader.header(&mut root)?,
             Some(b'#' | b'\n' | b'\r') => {}
-            Some(_) => reader.key_value(root.at(&current)?)?,
+            Some(_) => reader.key_value(root.at(current.as_slice())?)?,
         }
         reader.line_end()?;
     }
     Some(root.into_node())
+}
+
+/// Where a header leads: entry indices from the root, at most
+/// [`MAX_DEPTH`] (no allocation for a header).
+#[derive(Default, Clone, Copy)]
+struct Steps {
+    indices: [usize; MAX_DEPTH + 1],
+    len: usize,
+}
+
+impl Steps {
+    fn push(&mut self, i: usize) -> Option<()> {
+        *self.indices.get_mut(self.len)? = i;
+        self.len += 1;
+        Some(())
+    }
+
+    fn as_slice(&self) -> &[usize] {
+        &self.indices[..self.len]
+    }
 }
 
 /// A table being built: its entries in document order.
@@ -86,6 +106,10 @@ impl<'t> Table<'t> {
     fn push(&mut self, key: &'t str, slot: Slot<'t>) -> Option<usize> {
         if self.entries.len() >= MAX_KEYS {
             return None;
+        }
+        if self.entries.is_empty() {
+            // A sheet's tables hold a handful of keys: room for them at once.
+            self.entries.reserve(8);
         }
         self.entries.push((key, slot));
         Some(self.entries.len() - 1)
@@ -211,23 +235,23 @@ impl<'t> Reader<'t> {
 
     /// A `[table]` or `[[array.of.tables]]` header of bare keys; where the lines
     /// after it go.
-    fn header(&mut self, root: &mut Table<'t>) -> Option<Vec<usize>> {
+    fn header(&mut self, root: &mut Table<'t>) -> Option<Steps> {
         self.at += 1;
         let many = self.eat(b'[');
-        let mut path = Vec::new();
+        let mut path = Steps::default();
         let mut table = root;
         loop {
             let key = self.bare_key()?;
             let found = table.find(key);
             if self.eat(b'.') {
-                if path.len() >= MAX_DEPTH {
+                if path.len >= MAX_DEPTH {
                     return None;
                 }
                 let i = match found {
                     Some(i) => i,
                     None => table.push(key, Slot::Table(Table::default()))?,
                 };
-                path.push(i);
+                path.push(i)?;
                 table = match &mut table.entries[i].1 {
                     Slot::Table(t) => t,
                     Slot::Tables(ts) => ts.last_mut()?,
@@ -258,7 +282,7 @@ impl<'t> Reader<'t> {
                     i
                 }
             };
-            path.push(i);
+            path.push(i)?;
             return Some(path);
         }
     }

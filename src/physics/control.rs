@@ -12,7 +12,7 @@
 //! The matrix is plain `f64` in SI: the thrust row in N, moment rows in N m.
 //! The ACAI is a distance in that mixed space (N and N m), as in `du-2015`.
 
-use nalgebra::{DVector, Matrix3, Matrix4xX, Vector3, Vector4, SVD};
+use nalgebra::{DVector, Matrix3, Matrix4, Matrix4xX, Vector3, Vector4, SVD};
 use serde::Serialize;
 use uom::si::f64::{Angle, Force, Length, Torque};
 use uom::si::{force::newton, length::meter, torque::newton_meter};
@@ -258,16 +258,29 @@ pub struct Authority {
     pub tied: Vec<Axis>,
 }
 
-/// Singular values of `m` (padded to four columns) and its left singular vectors.
-fn svd(m: &Matrix4xX<f64>) -> Option<(Vec<f64>, Vec<Vector4<f64>>)> {
+/// Singular values of `m` (padded to four columns, so there are always
+/// four) and its left singular vectors. Up to four columns the matrix is
+/// square and fixed in size, so the decomposition runs without the heap.
+fn svd(m: &Matrix4xX<f64>) -> Option<([f64; 4], [Vector4<f64>; 4])> {
     if m.iter().any(|v| !v.is_finite()) {
         return None;
     }
-    let padded = m.clone().resize_horizontally(m.ncols().max(4), 0.0);
-    let svd = SVD::try_new(padded, true, false, f64::EPSILON, 10_000)?;
+    if m.ncols() <= 4 {
+        let mut square = Matrix4::zeros();
+        square.columns_mut(0, m.ncols()).copy_from(m);
+        let svd = SVD::try_new(square, true, false, f64::EPSILON, 10_000)?;
+        let u = svd.u?;
+        return Some((
+            std::array::from_fn(|j| svd.singular_values[j]),
+            std::array::from_fn(|j| u.column(j).into_owned()),
+        ));
+    }
+    let svd = SVD::try_new(m.clone(), true, false, f64::EPSILON, 10_000)?;
     let u = svd.u?;
-    let vectors = (0..4).map(|j| u.column(j).into_owned()).collect();
-    Some((svd.singular_values.iter().copied().collect(), vectors))
+    Some((
+        std::array::from_fn(|j| svd.singular_values[j]),
+        std::array::from_fn(|j| u.column(j).into_owned()),
+    ))
 }
 
 /// For each row of `m` in order, whether it adds a direction to the rows

@@ -11,6 +11,7 @@ use axum::http::StatusCode;
 
 use crate::catalog::tiers::{self, Tier};
 use crate::claim::Claim;
+use crate::report::say::{say, say_to, Piece};
 use crate::report::scan::Escapes;
 use crate::report::{sig3, Figure, Finding, Report, Sig3, Verdict};
 use crate::rules::{self, control_authority::LayoutView};
@@ -201,7 +202,8 @@ pub struct FigureRow<'a> {
 
 /// Groups a finding's figures by key, keeping the order the rule gave.
 pub fn figure_rows(figures: &[Figure]) -> Vec<FigureRow<'_>> {
-    let mut rows: Vec<FigureRow> = Vec::new();
+    // At most one row a figure; most rows hold three.
+    let mut rows: Vec<FigureRow> = Vec::with_capacity(figures.len());
     for f in figures {
         let at = rows.iter().position(|r| r.key == f.key);
         let row = match at {
@@ -287,33 +289,70 @@ pub fn summary(report: &Report) -> String {
         return "No checks ran on this sheet, so nothing can be said about it yet.".to_string();
     }
     let n = report.findings.len();
-    let mut counts = Vec::new();
-    for v in Verdict::ALL {
+    let counts = Counts(Verdict::ALL.map(|v| {
         let k = report.findings.iter().filter(|f| f.verdict == v).count();
-        if k > 0 {
-            counts.push(format!("{k} {}", v.label()));
-        }
-    }
+        (k, v.label())
+    }));
     let worst = report
         .findings
         .iter()
         .max_by_key(|f| f.verdict.severity())
         .expect("findings is not empty");
-    let mut s = format!(
-        "{n} check{} ran on this sheet: {}. The overall verdict is the worst of them, {}: the claim {}.",
-        if n == 1 { "" } else { "s" },
-        counts.join(", "),
+    let deciding = (report.verdict != Verdict::Consistent).then(|| {
+        (
+            (
+                " The deciding check is ",
+                Lower(rule_title(worst.rule)),
+                ": ",
+            ),
+            worst.headline.as_str(),
+            "",
+        )
+    });
+    say!(
+        n,
+        if n == 1 { " check" } else { " checks" },
+        " ran on this sheet: ",
+        counts,
+        ". The overall verdict is the worst of them, ",
         report.verdict.label(),
-        report.verdict.meaning()
-    );
-    if report.verdict != Verdict::Consistent {
-        s.push_str(&format!(
-            " The deciding check is {}: {}",
-            rule_title(worst.rule).to_lowercase(),
-            worst.headline
-        ));
+        ": the claim ",
+        report.verdict.meaning(),
+        ".",
+        deciding,
+    )
+}
+
+/// "2 impossible, 1 doubtful": each verdict that occurs with its count, in
+/// the order of [`Verdict::ALL`].
+struct Counts([(usize, &'static str); 5]);
+
+impl Piece for Counts {
+    fn size(&self) -> usize {
+        self.0.iter().map(|(_, label)| label.len() + 24).sum()
     }
-    s
+    fn push_to(&self, out: &mut String) {
+        let mut first = true;
+        for &(k, label) in self.0.iter().filter(|(k, _)| *k > 0) {
+            if !first {
+                out.push_str(", ");
+            }
+            first = false;
+            say_to!(out, k, " ", label);
+        }
+    }
+}
+
+/// A text in lower case, as `str::to_lowercase` writes it.
+struct Lower(&'static str);
+
+impl Piece for Lower {
+    fn size(&self) -> usize {
+        self.0.len()
+    }
+    fn push_to(&self, out: &mut String) {
+        out.extend(self.0.chars().flat_map(char::to_lowercase));
+    }
 }
 
 #[derive(Template)]
