@@ -5,7 +5,10 @@
 # Usage: tests/load.sh [--report-only]
 #   --report-only (or LOAD_REPORT_ONLY=1): print the figures and the PASS/FAIL lines, exit 0.
 # Tunables (defaults are the issue's bounded run): LOAD_THREADS=2 LOAD_CONNECTIONS=32
-#   LOAD_DURATION=10s LOAD_WARMUP=2s LOAD_DEMO=hover-lamp
+#   LOAD_DURATION=10s LOAD_ROUNDS=5 LOAD_WARMUP=2s LOAD_DEMO=hover-lamp
+# Each route gets LOAD_DURATION in all, in LOAD_ROUNDS slices taken in turn (trivial, api, page,
+# demo, trivial, ...), so that a machine that speeds up or slows down during the run (other
+# tenants, frequency) weighs on every route alike rather than on whichever ran then.
 #
 # Loopback only: the server listens on 127.0.0.1 on a port the kernel picks (port 0; the port is
 # read from the server's "listening on" line, so there is no race for a free port).
@@ -18,13 +21,19 @@ report_only="${LOAD_REPORT_ONLY:-0}"
 for arg in "$@"; do
     case "$arg" in
         --report-only) report_only=1 ;;
-        -h | --help) sed -n '2,13p' "$0"; exit 0 ;;
+        -h | --help) sed -n '2,16p' "$0"; exit 0 ;;
         *) echo "load.sh: unknown argument '$arg'" >&2; exit 2 ;;
     esac
 done
 threads="${LOAD_THREADS:-2}"
 connections="${LOAD_CONNECTIONS:-32}"
 duration="${LOAD_DURATION:-10s}"
+rounds="${LOAD_ROUNDS:-5}"
+# wrk takes whole seconds; each slice is the duration over the rounds.
+seconds=${duration%s}
+case "$seconds" in '' | *[!0-9]*) echo "load.sh: LOAD_DURATION must be whole seconds, like 10s" >&2; exit 2 ;; esac
+slice=$((seconds / rounds))
+[ "$slice" -ge 1 ] || { echo "load.sh: LOAD_DURATION must give each of the $rounds rounds a second" >&2; exit 2; }
 warmup="${LOAD_WARMUP:-2s}"
 demo="${LOAD_DEMO:-hover-lamp}"
 sheet="demo-claims/$demo.toml"
@@ -62,14 +71,19 @@ python3 -c 'import json, sys, tomllib; print(json.dumps(tomllib.load(open(sys.ar
     "$sheet" >"$work/sheet.json"
 cp "$sheet" "$work/sheet.toml"
 
-# One wrk script per route. done() prints one machine-readable line; wrk counts a status >= 400
-# in errors.status (the preflight below checks each route answers 200 first).
+# One wrk script per route. done() prints one machine-readable line and the latency histogram
+# (each distinct latency in microseconds with its count), so that the rounds of a route merge
+# into one distribution; wrk counts a status >= 400 in errors.status (the preflight below
+# checks each route answers 200 first).
 done_lua='
 done = function(summary, latency, requests)
   local e = summary.errors
-  io.write(string.format("LOADRESULT %d %d %d %d %d %d %d %d %d\n",
-    summary.requests, summary.duration, latency:percentile(50), latency:percentile(99),
-    e.connect, e.read, e.write, e.status, e.timeout))
+  io.write(string.format("LOADRESULT %d %d %d %d %d %d %d\n",
+    summary.requests, summary.duration, e.connect, e.read, e.write, e.status, e.timeout))
+  for i = 1, #latency do
+    local v, c = latency(i)
+    io.write(string.format("LOADHIST %d %d\n", v, c))
+  end
 end
 '
 read_body_lua='
@@ -145,7 +159,8 @@ echo "liftaudit load run: $(git rev-parse --short HEAD 2>/dev/null || echo '?') 
 echo "wrk and the server share these $cores cores on loopback: wrk's $threads threads take CPU the"
 echo "server would otherwise have, so absolute figures understate a server alone; the ratios"
 echo "against the trivial route on the same server in the same run are what the targets judge."
-echo "wrk: $threads threads, $connections connections, $duration per route after a $warmup warm-up"
+echo "wrk: $threads threads, $connections connections, $((slice * rounds))s per route in $rounds rounds of ${slice}s"
+echo "taken in turn, after a $warmup warm-up of each; p50 and p99 are over all of a route's rounds"
 echo "load average before: $(cut -d' ' -f1-3 /proc/loadavg)"
 echo
 
@@ -154,27 +169,53 @@ echo
 ticks=$(getconf CLK_TCK)
 server_cpu() { awk '{ print $14 + $15 }' "/proc/$server_pid/stat"; }
 
-declare -A rps p50 p99 errs cpu_us
+# The latency below which p percent of a route's requests fell, in ms, from its merged histogram.
+percentile() { # p histogram-file
+    sort -k2,2n "$2" | awk -v p="$1" '
+        { value[NR] = $2; count[NR] = $3; total += $3 }
+        END {
+            if (total == 0) { print "0.00"; exit }
+            want = total * p / 100
+            for (i = 1; i <= NR; i++) { seen += count[i]; if (seen >= want) { printf "%.2f", value[i] / 1000; exit } }
+        }'
+}
+
+declare -A rps p50 p99 errs cpu_us requests micros ticks_used
 for entry in "${routes[@]}"; do
-    IFS='|' read -r name label script url <<<"$entry"
+    IFS='|' read -r name _ script url <<<"$entry"
     wrk -t"$threads" -c"$connections" -d"$warmup" -s "$script" "$url" >/dev/null
-    cpu0=$(server_cpu)
-    out=$(wrk -t"$threads" -c"$connections" -d"$duration" --latency -s "$script" "$url")
-    cpu1=$(server_cpu)
-    echo "$out" >"$work/wrk-$name.txt"
-    read -r _ n dur l50 l99 ec er ew es et <<<"$(grep '^LOADRESULT' <<<"$out")"
-    rps[$name]=$(awk -v n="$n" -v d="$dur" 'BEGIN { printf "%.0f", n / (d / 1e6) }')
-    p50[$name]=$(awk -v l="$l50" 'BEGIN { printf "%.2f", l / 1000 }')
-    p99[$name]=$(awk -v l="$l99" 'BEGIN { printf "%.2f", l / 1000 }')
-    cpu_us[$name]=$(awk -v c=$((cpu1 - cpu0)) -v t="$ticks" -v n="$n" 'BEGIN { printf "%.0f", c / t * 1e6 / n }')
-    errs[$name]=$((ec + er + ew + es + et))
-    printf '%-7s %-48s %8s req/s  p50 %6s ms  p99 %6s ms  server CPU %4s us/req  errors %d (connect %d, read %d, write %d, status>=400 %d, timeout %d)\n' \
-        "$name" "$label" "${rps[$name]}" "${p50[$name]}" "${p99[$name]}" "${cpu_us[$name]}" "${errs[$name]}" "$ec" "$er" "$ew" "$es" "$et"
+    requests[$name]=0 micros[$name]=0 ticks_used[$name]=0 errs[$name]=0
+    : >"$work/hist-$name.txt"
+done
+for round in $(seq "$rounds"); do
+    for entry in "${routes[@]}"; do
+        IFS='|' read -r name _ script url <<<"$entry"
+        cpu0=$(server_cpu)
+        out=$(wrk -t"$threads" -c"$connections" -d"${slice}s" --latency -s "$script" "$url")
+        cpu1=$(server_cpu)
+        echo "$out" >"$work/wrk-$name-$round.txt"
+        read -r _ n dur ec er ew es et <<<"$(grep '^LOADRESULT' <<<"$out")"
+        grep '^LOADHIST' <<<"$out" >>"$work/hist-$name.txt" || true
+        requests[$name]=$((requests[$name] + n))
+        micros[$name]=$((micros[$name] + dur))
+        ticks_used[$name]=$((ticks_used[$name] + cpu1 - cpu0))
+        errs[$name]=$((errs[$name] + ec + er + ew + es + et))
+    done
+done
+for entry in "${routes[@]}"; do
+    IFS='|' read -r name label _ _ <<<"$entry"
+    n=${requests[$name]}
+    rps[$name]=$(awk -v n="$n" -v d="${micros[$name]}" 'BEGIN { printf "%.0f", n / (d / 1e6) }')
+    p50[$name]=$(percentile 50 "$work/hist-$name.txt")
+    p99[$name]=$(percentile 99 "$work/hist-$name.txt")
+    cpu_us[$name]=$(awk -v c="${ticks_used[$name]}" -v t="$ticks" -v n="$n" 'BEGIN { printf "%.0f", c / t * 1e6 / n }')
+    printf '%-7s %-48s %8s req/s  p50 %6s ms  p99 %6s ms  server CPU %4s us/req  errors %d\n' \
+        "$name" "$label" "${rps[$name]}" "${p50[$name]}" "${p99[$name]}" "${cpu_us[$name]}" "${errs[$name]}"
 done
 
 hwm_kib=$(awk '/^VmHWM:/ { print $2 }' "/proc/$server_pid/status")
 rss_mib=$(awk -v k="$hwm_kib" 'BEGIN { printf "%.1f", k / 1024 }')
-ratio() { awk -v a="$1" -v b="$2" 'BEGIN { printf "%.2f", a / b }'; }
+ratio() { awk -v a="$1" -v b="$2" 'BEGIN { printf "%.3f", a / b }'; }
 api_ratio=$(ratio "${rps[api]}" "${rps[trivial]}")
 page_ratio=$(ratio "${rps[page]}" "${rps[trivial]}")
 demo_ratio=$(ratio "${rps[demo]}" "${rps[trivial]}")
