@@ -182,6 +182,20 @@ async fn drive(client: &fantoccini::Client, base: &str) -> Result<(), fantoccini
         assert!(width > 100.0, "{id} is drawn {width} px wide");
     }
 
+    // Both downloads post the page's one copy of the sheet: the form's own
+    // action, and the second button's formaction.
+    let form = client
+        .execute(
+            "const f = document.querySelector('form.download-forms'); \
+             return [f.action, f.querySelector('button[formaction]').formAction, f.elements['sheet'].value];",
+            vec![],
+        )
+        .await?;
+    let form: Vec<String> = serde_json::from_value(form).expect("three strings");
+    assert!(form[0].ends_with("/download/report.json"), "{}", form[0]);
+    assert!(form[1].ends_with("/download/sheet.toml"), "{}", form[1]);
+    assert!(form[2].contains("[rotors]"), "{}", form[2]);
+
     let out = target_dir().join("screenshots");
     std::fs::create_dir_all(&out).expect("screenshot directory");
     let height = client

@@ -160,6 +160,10 @@ async fn a_preset_round_trips_through_the_form_to_the_same_verdict_as_the_engine
     .await;
     assert_eq!(page.status, StatusCode::OK);
     assert_eq!(page_verdict(&page.body), Some(verdict_id_of(d.text)));
+    // Both downloads post the page's one copy of the sheet.
+    assert_eq!(page.body.matches("name=\"sheet\"").count(), 1);
+    assert!(page.body.contains("action=\"/download/report.json\""));
+    assert!(page.body.contains("formaction=\"/download/sheet.toml\""));
     let demo_page = get(&format!("/demo/{}", d.name)).await;
     assert_eq!(page_verdict(&demo_page.body), page_verdict(&page.body));
 }

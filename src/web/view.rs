@@ -47,25 +47,53 @@ impl Text<'_> {
     }
 }
 
-impl fmt::Display for Text<'_> {
-    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
-        self.write_to(f)
-    }
+/// Display, askama's HtmlSafe and FastWritable for a type that writes its
+/// own HTML with `write_to`. Its Display escapes (or needs no escape), so
+/// askama must not escape it again; and askama writes a FastWritable value
+/// straight into the page, not through `write!` and a Formatter: a verdict
+/// page has some 250 values, and the formatting machinery around each cost
+/// more than escaping it.
+macro_rules! writes_its_own_html {
+    ($($t:ty),+) => {$(
+        impl fmt::Display for $t {
+            fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+                self.write_to(f)
+            }
+        }
+
+        impl askama::filters::HtmlSafe for $t {}
+
+        impl askama::FastWritable for $t {
+            fn write_into<W: fmt::Write + ?Sized>(
+                &self,
+                dest: &mut W,
+                _: &dyn askama::Values,
+            ) -> askama::Result<()> {
+                Ok(self.write_to(dest)?)
+            }
+        }
+    )+};
 }
+writes_its_own_html!(Text<'_>, Plain);
 
-// Its Display escapes, so askama must not escape it again.
-impl askama::filters::HtmlSafe for Text<'_> {}
+/// Text of our own with nothing to escape, written as it is: verdict ids,
+/// labels and meanings, tier labels, rule ids and titles, units, source ids
+/// and titles, the cautions and the engine. A test holds each set free of
+/// the characters HTML escapes, and the debug build asserts it of each one
+/// written; anything from a sheet, or a sentence a rule writes, is a
+/// [`Text`].
+#[derive(Debug, Clone, Copy)]
+pub struct Plain(pub &'static str);
 
-// Askama writes a value that is FastWritable straight into the page, not
-// through `write!` and a Formatter: a verdict page has some 250 values, and
-// the formatting machinery around each cost more than escaping it.
-impl askama::FastWritable for Text<'_> {
-    fn write_into<W: fmt::Write + ?Sized>(
-        &self,
-        dest: &mut W,
-        _: &dyn askama::Values,
-    ) -> askama::Result<()> {
-        Ok(self.write_to(dest)?)
+impl Plain {
+    fn write_to<W: fmt::Write + ?Sized>(&self, out: &mut W) -> fmt::Result {
+        debug_assert_eq!(
+            Escapes::Html.clean_run(self.0.as_bytes()),
+            self.0.len(),
+            "{}",
+            self.0
+        );
+        out.write_str(self.0)
     }
 }
 
@@ -128,18 +156,18 @@ fn unit_label(unit: &'static str) -> &'static str {
 /// nothing depends on telling colours apart.
 #[derive(Debug, Clone)]
 pub struct VerdictView {
-    pub id: Text<'static>,
-    pub label: Text<'static>,
-    pub meaning: Text<'static>,
+    pub id: Plain,
+    pub label: Plain,
+    pub meaning: Plain,
     pub icon: &'static str,
 }
 
 impl VerdictView {
     pub fn of(v: Verdict) -> VerdictView {
         VerdictView {
-            id: Text(v.id()),
-            label: Text(v.label()),
-            meaning: Text(v.meaning()),
+            id: Plain(v.id()),
+            label: Plain(v.label()),
+            meaning: Plain(v.meaning()),
             icon: icon(v),
         }
     }
@@ -193,7 +221,7 @@ fn rule_title(id: &'static str) -> &'static str {
 pub struct FigureRow<'a> {
     pub key: &'static str,
     pub label: Text<'a>,
-    pub unit: Text<'static>,
+    pub unit: Plain,
     /// Values at physical limit, best practice, typical.
     pub by_tier: [Cell; 3],
     /// The value of a tier-independent figure.
@@ -212,7 +240,7 @@ pub fn figure_rows(figures: &[Figure]) -> Vec<FigureRow<'_>> {
                 rows.push(FigureRow {
                     key: f.key,
                     label: Text(&f.label),
-                    unit: Text(unit_label(f.unit)),
+                    unit: Plain(unit_label(f.unit)),
                     by_tier: [Cell::Missing; 3],
                     fixed: None,
                 });
@@ -229,14 +257,14 @@ pub fn figure_rows(figures: &[Figure]) -> Vec<FigureRow<'_>> {
 
 #[derive(Debug, Clone)]
 pub struct SourceLink {
-    pub id: Text<'static>,
-    pub title: Text<'static>,
+    pub id: Plain,
+    pub title: Plain,
 }
 
 #[derive(Debug, Clone)]
 pub struct FindingView<'a> {
-    pub rule: Text<'static>,
-    pub rule_title: Text<'static>,
+    pub rule: Plain,
+    pub rule_title: Plain,
     pub verdict: VerdictView,
     pub headline: Text<'a>,
     pub rows: Vec<FigureRow<'a>>,
@@ -248,8 +276,8 @@ pub struct FindingView<'a> {
 impl<'a> FindingView<'a> {
     pub fn of(f: &'a Finding) -> FindingView<'a> {
         FindingView {
-            rule: Text(f.rule),
-            rule_title: Text(rule_title(f.rule)),
+            rule: Plain(f.rule),
+            rule_title: Plain(rule_title(f.rule)),
             verdict: VerdictView::of(f.verdict),
             headline: Text(&f.headline),
             rows: figure_rows(&f.figures),
@@ -259,8 +287,8 @@ impl<'a> FindingView<'a> {
                 .sources
                 .iter()
                 .map(|id| SourceLink {
-                    id: Text(id),
-                    title: Text(sources::get(id).map(|s| s.title).unwrap_or(id)),
+                    id: Plain(id),
+                    title: Plain(sources::get(id).map(|s| s.title).unwrap_or(id)),
                 })
                 .collect(),
         }
@@ -364,9 +392,9 @@ pub struct VerdictPage<'a> {
     pub summary: String,
     pub findings: Vec<FindingView<'a>>,
     pub drawings: Vec<Drawing>,
-    pub tiers: [Text<'static>; 3],
-    pub cautions: Vec<Text<'static>>,
-    pub engine: Text<'static>,
+    pub tiers: [Plain; 3],
+    pub cautions: Vec<Plain>,
+    pub engine: Plain,
     pub downloads: Downloads,
 }
 
@@ -391,9 +419,9 @@ impl<'a> VerdictPage<'a> {
             summary: summary(report),
             findings: report.findings.iter().map(FindingView::of).collect(),
             drawings: figures::all(report, claim, layout),
-            tiers: Tier::ALL.map(|t| Text(t.label())),
-            cautions: report.cautions.iter().map(|c| Text(c)).collect(),
-            engine: Text(report.engine),
+            tiers: Tier::ALL.map(|t| Plain(t.label())),
+            cautions: report.cautions.iter().map(|c| Plain(c)).collect(),
+            engine: Plain(report.engine),
             downloads,
         }
     }
@@ -558,6 +586,32 @@ mod tests {
                     .write_escaped_str(&mut expected, &text)
                     .unwrap();
                 assert_eq!(Text(&text).to_string(), expected, "{text:?}");
+            }
+        }
+    }
+
+    #[test]
+    fn the_texts_written_as_they_are_hold_nothing_to_escape() {
+        let clean = |t: &str| {
+            assert_eq!(Escapes::Html.clean_run(t.as_bytes()), t.len(), "{t}");
+        };
+        for v in Verdict::ALL {
+            [v.id(), v.label(), v.meaning()].into_iter().for_each(clean);
+        }
+        Tier::ALL.iter().for_each(|t| clean(t.label()));
+        for r in rules::REGISTRY {
+            [r.id, r.title].into_iter().for_each(clean);
+        }
+        for s in sources::SOURCES {
+            [s.id, s.title].into_iter().for_each(clean);
+        }
+        crate::report::CAUTIONS.into_iter().for_each(clean);
+        clean(crate::report::ENGINE);
+        // Units are the rules' own; every one the demo reports use.
+        for d in crate::claim::demo::DEMOS {
+            let report = rules::run_all(&crate::claim::parse_any(d.text).unwrap());
+            for f in &report.findings {
+                f.figures.iter().for_each(|g| clean(unit_label(g.unit)));
             }
         }
     }
