@@ -100,8 +100,6 @@ fn d1(v: f64) -> Fixed {
 /// decimal ([`d1`], [`Size`]), straight into the body: a page has hundreds,
 /// and the formatting machinery per number cost more than the drawing.
 struct Svg {
-    width: f64,
-    height: f64,
     body: String,
 }
 
@@ -140,13 +138,43 @@ impl Piece for Size {
 }
 
 impl Svg {
-    fn new(width: f64, height: f64) -> Svg {
-        Svg {
-            width,
-            height,
-            // A drawing's body is a few kilobytes; start there, not at zero.
-            body: String::with_capacity(4096),
-        }
+    /// A drawing `id` with its title and paper. It is described by the
+    /// figure's caption (`aria-describedby`, the figcaption `{id}-c`), so
+    /// the markup starts here and the body grows in place.
+    fn new(id: &str, title: &str, width: f64, height: f64) -> Svg {
+        // A drawing is a few kilobytes; start there, not at zero.
+        let mut body = String::with_capacity(4096);
+        let (w, h) = (Fixed(width, 0), Fixed(height, 0));
+        say_to!(
+            &mut body,
+            "<svg xmlns=\"http://www.w3.org/2000/svg\" class=\"drawing\" viewBox=\"0 0 ",
+            w,
+            " ",
+            h,
+            "\" width=\"",
+            w,
+            "\" height=\"",
+            h,
+            "\" role=\"img\" aria-labelledby=\"",
+            id,
+            "-t\" aria-describedby=\"",
+            id,
+            "-c\" font-family=\"system-ui, sans-serif\"><title id=\"",
+            id,
+            "-t\">",
+        );
+        push_escaped(&mut body, title);
+        say_to!(
+            &mut body,
+            "</title><rect width=\"",
+            w,
+            "\" height=\"",
+            h,
+            "\" fill=\"",
+            PAPER,
+            "\"/>",
+        );
+        Svg { body }
     }
 
     fn line(
@@ -319,43 +347,9 @@ impl Svg {
         self.body.push_str("</text>");
     }
 
-    fn finish(self, id: &str, title: &str, desc: &str) -> String {
-        let mut out = String::with_capacity(self.body.len() + 512 + title.len() + desc.len());
-        let (w, h) = (Fixed(self.width, 0), Fixed(self.height, 0));
-        say_to!(
-            &mut out,
-            "<svg xmlns=\"http://www.w3.org/2000/svg\" class=\"drawing\" viewBox=\"0 0 ",
-            w,
-            " ",
-            h,
-            "\" width=\"",
-            w,
-            "\" height=\"",
-            h,
-            "\" role=\"img\" aria-labelledby=\"",
-            id,
-            "-t ",
-            id,
-            "-d\" font-family=\"system-ui, sans-serif\"><title id=\"",
-            id,
-            "-t\">",
-        );
-        push_escaped(&mut out, title);
-        say_to!(&mut out, "</title><desc id=\"", id, "-d\">");
-        push_escaped(&mut out, desc);
-        say_to!(
-            &mut out,
-            "</desc><rect width=\"",
-            w,
-            "\" height=\"",
-            h,
-            "\" fill=\"",
-            PAPER,
-            "\"/>",
-        );
-        out.push_str(&self.body);
-        out.push_str("</svg>");
-        out
+    fn finish(mut self) -> String {
+        self.body.push_str("</svg>");
+        self.body
     }
 }
 
@@ -448,7 +442,7 @@ pub fn free_body(report: &Report, claim: &Claim) -> Drawing {
         f64::INFINITY
     });
     let theta = f.tilt_deg.to_radians();
-    let mut svg = Svg::new(w, h);
+    let mut svg = Svg::new(ID, TITLE, w, h);
 
     // Ground reference and the body, nose (forward, +x) to the right, pitched
     // nose down by the tilt so that thrust leans forward.
@@ -563,7 +557,7 @@ pub fn free_body(report: &Report, claim: &Claim) -> Drawing {
     Drawing {
         id: ID,
         title: TITLE,
-        svg: Some(svg.finish(ID, TITLE, &caption)),
+        svg: Some(svg.finish()),
         caption,
     }
 }
@@ -622,7 +616,7 @@ pub fn thrust_bar(report: &Report) -> Drawing {
     let row_h = 34.0;
     let top = 30.0;
     let bottom = top + row_h * rows.len() as f64;
-    let mut svg = Svg::new(390.0, bottom + 62.0);
+    let mut svg = Svg::new(ID, TITLE, 390.0, bottom + 62.0);
     for (i, (tier, available)) in rows.iter().enumerate() {
         let y = top + i as f64 * row_h;
         svg.text((BAR_X - 8.0, y + 15.0), "end", 12.0, INK, tier.label());
@@ -663,7 +657,7 @@ pub fn thrust_bar(report: &Report) -> Drawing {
     Drawing {
         id: ID,
         title: TITLE,
-        svg: Some(svg.finish(ID, TITLE, &caption)),
+        svg: Some(svg.finish()),
         caption,
     }
 }
@@ -700,7 +694,7 @@ pub fn energy_bar(report: &Report) -> Drawing {
     let row_h = 44.0;
     let top = 12.0;
     let bottom = top + row_h * rows.len() as f64;
-    let mut svg = Svg::new(390.0, bottom + 62.0);
+    let mut svg = Svg::new(ID, TITLE, 390.0, bottom + 62.0);
     for (i, (tier, stored, needed)) in rows.iter().enumerate() {
         let y = top + i as f64 * row_h;
         svg.text((BAR_X - 8.0, y + 20.0), "end", 12.0, INK, tier.label());
@@ -742,7 +736,7 @@ pub fn energy_bar(report: &Report) -> Drawing {
     Drawing {
         id: ID,
         title: TITLE,
-        svg: Some(svg.finish(ID, TITLE, &caption)),
+        svg: Some(svg.finish()),
         caption,
     }
 }
@@ -762,7 +756,7 @@ pub fn rotor_layout(claim: &Claim, plan: Option<&layout::Plan>) -> Drawing {
             ),
         );
     };
-    let (svg, scale_note) = draw_plan(plan, None);
+    let (svg, scale_note) = draw_plan(ID, TITLE, plan, None);
     let axes: Vec<&str> = plan.lacking.iter().map(|a| a.id()).collect();
     let caption = say!(
         "Top view, to scale (",
@@ -798,7 +792,7 @@ pub fn rotor_layout(claim: &Claim, plan: Option<&layout::Plan>) -> Drawing {
     Drawing {
         id: ID,
         title: TITLE,
-        svg: Some(svg.finish(ID, TITLE, &caption)),
+        svg: Some(svg.finish()),
         caption,
     }
 }
@@ -822,7 +816,7 @@ pub fn rotor_failure(claim: &Claim, plan: Option<&layout::Plan>) -> Option<Drawi
             "the control-authority check could not search rotor failures for this sheet.",
         ));
     };
-    let (svg, scale_note) = draw_plan(plan, Some(lost));
+    let (svg, scale_note) = draw_plan(ID, TITLE, plan, Some(lost));
     let typical = acai[2];
     // An index within rounding of zero is zero: no margin at all for some moment.
     let caption = if typical > ZERO_AUTHORITY {
@@ -851,14 +845,14 @@ pub fn rotor_failure(claim: &Claim, plan: Option<&layout::Plan>) -> Option<Drawi
     Some(Drawing {
         id: ID,
         title: TITLE,
-        svg: Some(svg.finish(ID, TITLE, &caption)),
+        svg: Some(svg.finish()),
         caption,
     })
 }
 
 /// Draws a plan from above; `lost` (numbered from 1) is drawn stopped.
 /// Returns the picture and the length its scale bar stands for.
-fn draw_plan(plan: &layout::Plan, lost: Option<usize>) -> (Svg, String) {
+fn draw_plan(id: &str, title: &str, plan: &layout::Plan, lost: Option<usize>) -> (Svg, String) {
     let reach = plan
         .rotors
         .iter()
@@ -875,7 +869,7 @@ fn draw_plan(plan: &layout::Plan, lost: Option<usize>) -> (Svg, String) {
     let scale = 115.0 / extent;
     // Body x (forward) is up the page, body y (left) is left: a view from above.
     let to_page = |x: f64, y: f64| (centre.0 - y * scale, centre.1 - x * scale);
-    let mut svg = Svg::new(w, h);
+    let mut svg = Svg::new(id, title, w, h);
 
     svg.arrow(
         (centre.0, centre.1 - 14.0),
