@@ -40,7 +40,7 @@ impl Fixed {
 pub fn push_fixed(out: &mut String, v: f64, places: usize) {
     if places == 1 {
         push_tenths(out, v);
-    } else {
+    } else if !push_small_fixed(out, v, places) {
         push_fixed_any(out, v, places);
     }
 }
@@ -57,12 +57,7 @@ fn push_tenths(out: &mut String, v: f64) {
         if (fraction - 0.5).abs() > 1e-6 {
             let n = whole as u64 + u64::from(fraction > 0.5);
             let (bytes, len) = tenths_ascii(n, v.is_sign_negative());
-            // SAFETY: every byte written is ASCII (digits, '.', '-', and the
-            // zeros after them), which is UTF-8, and the zeros are cut off.
-            let vec = unsafe { out.as_mut_vec() };
-            let at = vec.len();
-            vec.extend_from_slice(&bytes);
-            vec.truncate(at + len);
+            push_ascii(out, &bytes, len);
             return;
         }
     }
@@ -72,30 +67,112 @@ fn push_tenths(out: &mut String, v: f64) {
 /// `n` tenths (n < 10^5) as `{:.1}` writes them, from the first byte, and
 /// the length: at most a sign, four digits, the point and one decimal.
 #[inline(always)]
-fn tenths_ascii(n: u64, negative: bool) -> ([u8; 8], usize) {
-    let (whole, tenth) = ((n / 10) as usize, (n % 10) as u8);
-    let (high, low) = (whole / 100, whole % 100);
+fn tenths_ascii(n: u64, negative: bool) -> ([u8; 16], usize) {
+    let mut b = [0; 16];
+    b[0] = b'-';
+    let end = whole_ascii(&mut b, usize::from(negative), (n / 10) as usize);
+    b[end] = b'.';
+    b[end + 1] = b'0' + (n % 10) as u8;
+    (b, end + 2)
+}
+
+/// Writes `whole` (below 10^6) at `at` in `b`, most significant digit
+/// first, two at a time; where it ends.
+#[inline(always)]
+fn whole_ascii(b: &mut [u8; 16], at: usize, whole: usize) -> usize {
     let pair = |k: usize| [DIGIT_PAIRS[2 * k], DIGIT_PAIRS[2 * k + 1]];
-    let mut b = [b'-', 0, 0, 0, 0, 0, 0, 0];
-    let at = usize::from(negative);
-    let end = if whole >= 1000 {
+    let mut at = at;
+    let mut digit = |b: &mut [u8; 16], d: usize| {
+        b[at] = b'0' + d as u8;
+        at += 1;
+    };
+    let (top, rest) = (whole / 10_000, whole % 10_000);
+    let (high, low) = (rest / 100, rest % 100);
+    if whole >= 10_000 {
+        if top >= 10 {
+            [b[at], b[at + 1]] = pair(top);
+            at += 2;
+        } else {
+            digit(b, top);
+        }
+        [b[at], b[at + 1]] = pair(high);
+        [b[at + 2], b[at + 3]] = pair(low);
+        at + 4
+    } else if whole >= 1000 {
         [b[at], b[at + 1]] = pair(high);
         [b[at + 2], b[at + 3]] = pair(low);
         at + 4
     } else if whole >= 100 {
-        b[at] = b'0' + high as u8;
-        [b[at + 1], b[at + 2]] = pair(low);
-        at + 3
+        digit(b, high);
+        [b[at], b[at + 1]] = pair(low);
+        at + 2
     } else if whole >= 10 {
         [b[at], b[at + 1]] = pair(low);
         at + 2
     } else {
-        b[at] = b'0' + low as u8;
-        at + 1
+        digit(b, low);
+        at
+    }
+}
+
+/// [`Fixed`]`(v, places)` for no, two or three places (the table values
+/// and the numbers in sentences, through [`Sig3`]) where `v * 10^places`
+/// is below 10^6 and away from a tie: as [`push_tenths`], without the
+/// general digit buffer. False where the general way must write it.
+fn push_small_fixed(out: &mut String, v: f64, places: usize) -> bool {
+    let scaled = v.abs() * POW10_F64[places.min(3)];
+    // (NaN fails the comparison and goes the general way.)
+    if places > 3 || scaled.is_nan() || scaled >= 999_999.0 {
+        return false;
+    }
+    let whole = scaled as i64;
+    let fraction = scaled - whole as f64;
+    if (fraction - 0.5).abs() <= 1e-6 {
+        return false;
+    }
+    let n = whole as usize + usize::from(fraction > 0.5);
+    let mut b = [0; 16];
+    b[0] = b'-';
+    let at = usize::from(v.is_sign_negative());
+    let end = match places {
+        0 => whole_ascii(&mut b, at, n),
+        2 => {
+            let end = whole_ascii(&mut b, at, n / 100);
+            let low = n % 100;
+            b[end] = b'.';
+            [b[end + 1], b[end + 2]] = [DIGIT_PAIRS[2 * low], DIGIT_PAIRS[2 * low + 1]];
+            end + 3
+        }
+        _ => {
+            let end = whole_ascii(&mut b, at, n / 1000);
+            let rest = n % 1000;
+            let low = rest % 100;
+            b[end] = b'.';
+            b[end + 1] = b'0' + (rest / 100) as u8;
+            [b[end + 2], b[end + 3]] = [DIGIT_PAIRS[2 * low], DIGIT_PAIRS[2 * low + 1]];
+            end + 4
+        }
     };
-    b[end] = b'.';
-    b[end + 1] = b'0' + tenth;
-    (b, end + 2)
+    push_ascii(out, &b, end);
+    true
+}
+
+/// The first `len` bytes of `bytes` appended to `out`: by a copy of fixed
+/// size, cut back, where the buffer has room for all sixteen (so a buffer
+/// sized to fit is never grown for the padding), else as they are.
+#[inline(always)]
+fn push_ascii(out: &mut String, bytes: &[u8; 16], len: usize) {
+    debug_assert!(bytes[..len].is_ascii());
+    // SAFETY: every byte written is ASCII (digits, '.', '-', and the zeros
+    // after them), which is UTF-8, and all past `len` are cut off.
+    let vec = unsafe { out.as_mut_vec() };
+    let at = vec.len();
+    if vec.capacity() - at >= bytes.len() {
+        vec.extend_from_slice(bytes);
+        vec.truncate(at + len);
+    } else {
+        vec.extend_from_slice(&bytes[..len]);
+    }
 }
 
 /// [`push_fixed`] for any number of places, through [`fast_fixed`].
@@ -415,7 +492,11 @@ mod tests {
             f64::MIN_POSITIVE,
             999_999_999.5,
             99_999_999.95,
-            // Where the unrolled writer of tenths hands over to the loop.
+            // Where the unrolled writers hand over to the loop.
+            999_999.4,
+            999_999.6,
+            1_234_567.4,
+            -99_999.96,
             9_999.94,
             9_999.95,
             -9_999.96,
