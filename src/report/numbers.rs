@@ -121,7 +121,7 @@ fn whole_ascii(b: &mut [u8; 16], at: usize, whole: usize) -> usize {
 /// general digit buffer. False where the general way must write it.
 fn push_small_fixed(out: &mut String, v: f64, places: usize) -> bool {
     let scaled = v.abs() * POW10_F64[places.min(3)];
-    // (NaN fails the comparison and goes the general way.)
+    // NaN, and values too large for the unrolled writer, go the general way.
     if places > 3 || scaled.is_nan() || scaled >= 999_999.0 {
         return false;
     }
