@@ -52,10 +52,7 @@ pub fn push_fixed(out: &mut String, v: f64, places: usize) {
 fn push_tenths(out: &mut String, v: f64) {
     let scaled = v.abs() * 10.0;
     if scaled < 99_999.0 {
-        let whole = scaled as i64;
-        let fraction = scaled - whole as f64;
-        if (fraction - 0.5).abs() > 1e-6 {
-            let n = whole as u64 + u64::from(fraction > 0.5);
+        if let Some(n) = rounded_off_a_tie(scaled) {
             let (bytes, len) = tenths_ascii(n, v.is_sign_negative());
             push_ascii(out, &bytes, len);
             return;
@@ -125,12 +122,10 @@ fn push_small_fixed(out: &mut String, v: f64, places: usize) -> bool {
     if places > 3 || scaled.is_nan() || scaled >= 999_999.0 {
         return false;
     }
-    let whole = scaled as i64;
-    let fraction = scaled - whole as f64;
-    if (fraction - 0.5).abs() <= 1e-6 {
+    let Some(n) = rounded_off_a_tie(scaled) else {
         return false;
-    }
-    let n = whole as usize + usize::from(fraction > 0.5);
+    };
+    let n = n as usize;
     let mut b = [0; 16];
     b[0] = b'-';
     let at = usize::from(v.is_sign_negative());
@@ -290,6 +285,19 @@ const POW10_F64: [f64; 13] = {
     t
 };
 
+/// `scaled` (|v| * 10^places, below 1e9) rounded to an integer, unless its
+/// fraction is within 1e-6 of a half. The product is off the exact value
+/// v * 10^places by half an ulp at most, under 1e-7 below 1e9, so away
+/// from a tie rounding it rounds the exact value the same way; near one,
+/// [`exactly_rounded`] decides. (Through i64: x86-64 converts signed
+/// integers in one instruction.)
+#[inline(always)]
+fn rounded_off_a_tie(scaled: f64) -> Option<u64> {
+    let whole = scaled as i64;
+    let fraction = scaled - whole as f64;
+    ((fraction - 0.5).abs() > 1e-6).then(|| whole as u64 + u64::from(fraction > 0.5))
+}
+
 /// `v * 10^places` rounded to an integer from the exact binary value of `v`.
 #[inline(never)]
 fn exactly_rounded(v: f64, places: usize, unit: u64) -> Option<u64> {
@@ -328,16 +336,9 @@ fn fast_fixed(v: f64, places: usize, digits: &mut Digits) -> Option<usize> {
     if scaled.is_nan() || scaled >= 1e9 {
         return None;
     }
-    // The product is off the exact value v * 10^places by half an ulp at
-    // most, under 1e-7 below 1e9; unless its fraction is that close to a
-    // half, rounding it rounds the exact value the same way.
-    // (Through i64: x86-64 converts signed integers in one instruction.)
-    let whole = scaled as i64;
-    let fraction = scaled - whole as f64;
-    let n = if (fraction - 0.5).abs() > 1e-6 {
-        whole as u64 + u64::from(fraction > 0.5)
-    } else {
-        exactly_rounded(v, places, unit)?
+    let n = match rounded_off_a_tie(scaled) {
+        Some(n) => n,
+        None => exactly_rounded(v, places, unit)?,
     };
     let buf = &mut digits.0;
     // Whole part and decimals; the usual precisions divide by a constant,
