@@ -84,16 +84,24 @@ enum Slot<'t> {
     Tables(Vec<Table<'t>>),
 }
 
+impl<'t> Slot<'t> {
+    /// The table later lines and headers go into: a header's table, or the
+    /// last of an array of tables; none in a value.
+    fn table_mut(&mut self) -> Option<&mut Table<'t>> {
+        match self {
+            Slot::Table(t) => Some(t),
+            Slot::Tables(ts) => ts.last_mut(),
+            Slot::Value(_) => None,
+        }
+    }
+}
+
 impl<'t> Table<'t> {
     /// The table at `path`, entry indices from this one.
     fn at(&mut self, path: &[usize]) -> Option<&mut Table<'t>> {
         let mut table = self;
         for &i in path {
-            table = match &mut table.entries.get_mut(i)?.1 {
-                Slot::Table(t) => t,
-                Slot::Tables(ts) => ts.last_mut()?,
-                Slot::Value(_) => return None,
-            };
+            table = table.entries.get_mut(i)?.1.table_mut()?;
         }
         Some(table)
     }
@@ -252,11 +260,7 @@ impl<'t> Reader<'t> {
                     None => table.push(key, Slot::Table(Table::default()))?,
                 };
                 path.push(i)?;
-                table = match &mut table.entries[i].1 {
-                    Slot::Table(t) => t,
-                    Slot::Tables(ts) => ts.last_mut()?,
-                    Slot::Value(_) => return None,
-                };
+                table = table.entries[i].1.table_mut()?;
                 continue;
             }
             self.expect(b']')?;
