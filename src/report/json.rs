@@ -1,13 +1,18 @@
-//! The report as JSON text, written by hand for speed: byte for byte what
-//! `serde_json` writes from the derived `Serialize` (compact, or with its
-//! two-space indentation), as the tests check.
+//! The report as the API's compact JSON, written by hand for speed: byte for
+//! byte what `serde_json` writes from the derived `Serialize`, as the tests
+//! check. The indented form, for the files people open, is serde_json's own
+//! ([`Report::to_json`]).
 //!
 //! serde_json looks at every byte of a string on its own before copying it,
 //! and the report is mostly text (hover-lamp: 250 strings, 8 kB of 12 kB).
 //! Here the runs with nothing to escape are found sixteen bytes at a time
-//! ([`super::scan`]) and copied whole, and member names, which are ours, are
-//! copied without a look. Numbers are still written by serde_json, so they
-//! keep its shortest round-trip form.
+//! ([`super::scan`]) and copied whole; the punctuation and member names,
+//! whose places the contract fixes, are copied as whole constant pieces
+//! (`,"label":"`), and our own words (ids, keys, units, fixed labels,
+//! cautions) without a look. Numbers are still written by serde_json, so
+//! they keep its shortest round-trip form.
+
+use std::borrow::Cow;
 
 use serde::Serialize;
 
@@ -16,201 +21,211 @@ use super::{Figure, Finding, Report};
 
 /// The report as one line of JSON, for clients that parse it.
 pub fn compact(report: &Report) -> Vec<u8> {
-    write(report, false)
+    let mut out = Out::with_room(16 * 1024);
+    out.report(report);
+    out.finish()
 }
 
-/// The report indented two spaces per level, for files people open.
-pub fn indented(report: &Report) -> Vec<u8> {
-    write(report, true)
-}
-
-fn write(report: &Report, pretty: bool) -> Vec<u8> {
-    let mut w = Writer {
-        out: Vec::with_capacity(if pretty { 24 * 1024 } else { 16 * 1024 }),
-        pretty,
-        depth: 0,
-        first: true,
-    };
-    w.open(b'{');
-    w.key("schema");
-    w.plain(report.schema);
-    w.key("title");
-    w.str(&report.title);
-    w.key("verdict");
-    w.plain(report.verdict.id());
-    w.key("findings");
-    w.open(b'[');
-    for f in &report.findings {
-        w.item();
-        finding(&mut w, f);
-    }
-    w.close(b']');
-    w.key("cautions");
-    w.strings(report.cautions.iter().copied());
-    w.key("engine");
-    w.plain(report.engine);
-    w.close(b'}');
-    w.out
-}
-
-fn finding(w: &mut Writer, f: &Finding) {
-    w.open(b'{');
-    w.key("rule");
-    w.plain(f.rule);
-    w.key("verdict");
-    w.plain(f.verdict.id());
-    w.key("headline");
-    w.str(&f.headline);
-    w.key("figures");
-    w.open(b'[');
-    for g in &f.figures {
-        w.item();
-        figure(w, g);
-    }
-    w.close(b']');
-    w.key("would_take");
-    w.str(&f.would_take);
-    w.key("assumptions");
-    w.strings(f.assumptions.iter().map(String::as_str));
-    w.key("sources");
-    w.open(b'[');
-    for id in &f.sources {
-        w.item();
-        w.plain(id);
-    }
-    w.close(b']');
-    w.close(b'}');
-}
-
-fn figure(w: &mut Writer, g: &Figure) {
-    w.open(b'{');
-    w.key("key");
-    w.plain(g.key);
-    w.key("label");
-    w.str(&g.label);
-    if let Some(t) = g.tier {
-        w.key("tier");
-        w.plain(t.id());
-    }
-    w.key("value");
-    w.number(g.value);
-    w.key("unit");
-    w.plain(g.unit);
-    w.close(b'}');
-}
-
-/// Punctuation and indentation as serde_json's compact and pretty
-/// formatters place them.
-struct Writer {
-    out: Vec<u8>,
-    pretty: bool,
-    depth: usize,
-    /// No member has been written since the last `{` or `[`.
-    first: bool,
-}
-
-impl Writer {
-    fn open(&mut self, bracket: u8) {
-        self.out.push(bracket);
-        self.depth += 1;
-        self.first = true;
+impl Out {
+    fn report(&mut self, report: &Report) {
+        self.put(b"{\"schema\":\"");
+        self.put(ours(report.schema));
+        self.put(b"\",\"title\":");
+        self.text(&report.title);
+        self.put(b",\"verdict\":\"");
+        self.put(ours(report.verdict.id()));
+        self.put(b"\",\"findings\":");
+        self.list(&report.findings, Out::finding);
+        // The cautions are ours (report::CAUTIONS), held escape-free by a test.
+        self.put(b",\"cautions\":");
+        self.list(&report.cautions, |out, c| out.plain(c));
+        self.put(b",\"engine\":\"");
+        self.put(ours(report.engine));
+        self.put(b"\"}");
     }
 
-    fn close(&mut self, bracket: u8) {
-        self.depth -= 1;
-        if !self.first {
-            self.newline();
+    fn finding(&mut self, f: &Finding) {
+        self.put(b"{\"rule\":\"");
+        self.put(ours(f.rule));
+        self.put(b"\",\"verdict\":\"");
+        self.put(ours(f.verdict.id()));
+        self.put(b"\",\"headline\":");
+        self.text(&f.headline);
+        self.put(b",\"figures\":");
+        self.list(&f.figures, Out::figure);
+        self.put(b",\"would_take\":");
+        self.text(&f.would_take);
+        self.put(b",\"assumptions\":");
+        self.list(&f.assumptions, |out, a| out.text(a));
+        self.put(b",\"sources\":");
+        self.list(&f.sources, |out, id| out.plain(id));
+        self.byte(b'}');
+    }
+
+    fn figure(&mut self, g: &Figure) {
+        self.put(b"{\"key\":\"");
+        self.put(ours(g.key));
+        self.put(b"\",\"label\":");
+        match &g.label {
+            // A borrowed label is 'static: one of the rules' fixed words.
+            Cow::Borrowed(label) => self.plain(label),
+            Cow::Owned(label) => self.text(label),
         }
-        self.out.push(bracket);
-        self.first = false;
-    }
-
-    /// Before an array element: the comma and line break.
-    #[inline(always)]
-    fn item(&mut self) {
-        if !self.first {
-            self.out.push(b',');
+        if let Some(t) = g.tier {
+            self.put(b",\"tier\":\"");
+            self.put(ours(t.id()));
+            self.byte(b'"');
         }
-        self.first = false;
-        self.newline();
+        self.put(b",\"value\":");
+        self.number(g.value);
+        self.put(b",\"unit\":\"");
+        self.put(ours(g.unit));
+        self.put(b"\"}");
     }
 
-    /// A member name: one of the contract's field names, which hold no
-    /// character that needs escaping. Inlined, so that each name is a
-    /// constant and its copy a few moves rather than a call to memcpy.
-    #[inline(always)]
-    fn key(&mut self, key: &'static str) {
-        debug_assert!(key.bytes().all(|b| !Escapes::Json.needs(b)), "{key}");
-        self.item();
-        self.out.push(b'"');
-        self.out.extend_from_slice(key.as_bytes());
-        self.out
-            .extend_from_slice(if self.pretty { b"\": " } else { b"\":" });
-    }
-
-    fn newline(&mut self) {
-        if self.pretty {
-            self.out.push(b'\n');
-            self.out.resize(self.out.len() + 2 * self.depth, b' ');
+    /// A JSON array, `[a,b]`.
+    fn list<T>(&mut self, items: &[T], mut each: impl FnMut(&mut Out, &T)) {
+        self.byte(b'[');
+        for (i, item) in items.iter().enumerate() {
+            if i > 0 {
+                self.byte(b',');
+            }
+            each(self, item);
         }
-    }
-
-    fn strings<'s>(&mut self, items: impl Iterator<Item = &'s str>) {
-        self.open(b'[');
-        for s in items {
-            self.item();
-            self.str(s);
-        }
-        self.close(b']');
+        self.byte(b']');
     }
 
     fn number(&mut self, v: f64) {
-        // serde_json writes a finite f64 in its shortest round-trip form and
-        // a non-finite one as null; writing into a Vec cannot fail.
-        let _ = v.serialize(&mut serde_json::Serializer::new(&mut self.out));
+        // serde_json writes a finite f64 in its shortest round-trip form (at
+        // most 24 bytes) and a non-finite one as null.
+        let mut digits = [0u8; 32];
+        let mut rest = &mut digits[..];
+        let _ = v.serialize(&mut serde_json::Serializer::new(&mut rest));
+        let n = 32 - rest.len();
+        self.put(&digits[..n]);
     }
 
-    /// A string of ours with nothing to escape (a verdict's or tier's id,
-    /// the schema, the engine, and the rule ids, figure keys, units and
-    /// source ids the rules write: the tests hold each to that), copied
-    /// without a look.
+    /// A string of ours, copied without a look.
     #[inline(always)]
     fn plain(&mut self, s: &'static str) {
-        debug_assert!(s.bytes().all(|b| !Escapes::Json.needs(b)), "{s}");
-        self.out.push(b'"');
-        self.out.extend_from_slice(s.as_bytes());
-        self.out.push(b'"');
+        self.byte(b'"');
+        self.put(ours(s));
+        self.byte(b'"');
     }
 
     /// A JSON string (RFC 8259 section 7) with serde_json's escapes: the
     /// short forms for \b \t \n \f \r, `\u00XX` for other control bytes.
     /// The runs between them are found by [`Escapes::clean_run`] and copied whole.
-    fn str(&mut self, s: &str) {
+    fn text(&mut self, s: &str) {
         let mut rest = s.as_bytes();
-        self.out.reserve(rest.len() + 2);
-        self.out.push(b'"');
+        self.byte(b'"');
         loop {
             let run = Escapes::Json.clean_run(rest);
-            self.out.extend_from_slice(&rest[..run]);
+            self.put(&rest[..run]);
             let Some(&b) = rest.get(run) else { break };
-            self.escaped(escape(b), b);
+            match escape(b) {
+                Escape::Short(c) => self.put(&[b'\\', c]),
+                Escape::Unicode => {
+                    const HEX: &[u8; 16] = b"0123456789abcdef";
+                    self.put(b"\\u00");
+                    self.put(&[HEX[usize::from(b >> 4)], HEX[usize::from(b & 0xf)]]);
+                }
+            }
             rest = &rest[run + 1..];
         }
-        self.out.push(b'"');
-    }
-
-    fn escaped(&mut self, escape: Escape, b: u8) {
-        match escape {
-            Escape::Short(c) => self.out.extend_from_slice(&[b'\\', c]),
-            Escape::Unicode => {
-                const HEX: &[u8; 16] = b"0123456789abcdef";
-                self.out.extend_from_slice(b"\\u00");
-                self.out.push(HEX[usize::from(b >> 4)]);
-                self.out.push(HEX[usize::from(b & 0xf)]);
-            }
-        }
+        self.byte(b'"');
     }
 }
+
+/// One of our own words with nothing to escape: a verdict's or tier's id, the
+/// schema, the engine, the cautions, and the rule ids, figure keys, fixed
+/// labels, units and source ids the rules write. The tests hold each to that,
+/// and the debug build asserts it of every one written.
+#[inline(always)]
+fn ours(s: &'static str) -> &'static [u8] {
+    debug_assert!(s.bytes().all(|b| !Escapes::Json.needs(b)), "{s}");
+    s.as_bytes()
+}
+
+/// The text being written: a zeroed buffer and a cursor into it. A report is
+/// some 700 pieces, most under sixteen bytes (punctuation, names, ids,
+/// numbers); into a `Vec` each would be a capacity check and a call to
+/// memcpy. Here a short piece is two overlapping moves into room the buffer
+/// already has, and only a long one calls memcpy; all of it is safe indexing.
+struct Out {
+    buf: Vec<u8>,
+    len: usize,
+}
+
+impl Out {
+    fn with_room(room: usize) -> Out {
+        Out {
+            buf: vec![0; room],
+            len: 0,
+        }
+    }
+
+    /// The next `n` bytes of the buffer, which is grown if it lacks them;
+    /// the cursor moves past them.
+    #[inline(always)]
+    fn room(&mut self, n: usize) -> &mut [u8] {
+        if self.buf.len() - self.len < n {
+            self.grow(n);
+        }
+        let at = self.len;
+        self.len += n;
+        &mut self.buf[at..at + n]
+    }
+
+    #[cold]
+    #[inline(never)]
+    fn grow(&mut self, n: usize) {
+        let want = (self.len + n + SHORT).max(2 * self.buf.len());
+        self.buf.resize(want, 0);
+    }
+
+    #[inline(always)]
+    fn byte(&mut self, b: u8) {
+        self.room(1)[0] = b;
+    }
+
+    /// Copies `s`; up to [`SHORT`] bytes as two moves of a power of two that
+    /// overlap in the middle (where the buffer has `SHORT` bytes of room past
+    /// the cursor for them), longer ones with memcpy.
+    #[inline(always)]
+    fn put(&mut self, s: &[u8]) {
+        let n = s.len();
+        if n > SHORT || self.buf.len() - self.len < SHORT {
+            self.room(n).copy_from_slice(s);
+            return;
+        }
+        let at = self.len;
+        let dst = &mut self.buf[at..at + SHORT];
+        if n >= 16 {
+            dst[..16].copy_from_slice(&s[..16]);
+            dst[n - 16..n].copy_from_slice(&s[n - 16..]);
+        } else if n >= 8 {
+            dst[..8].copy_from_slice(&s[..8]);
+            dst[n - 8..n].copy_from_slice(&s[n - 8..]);
+        } else if n >= 4 {
+            dst[..4].copy_from_slice(&s[..4]);
+            dst[n - 4..n].copy_from_slice(&s[n - 4..]);
+        } else {
+            for (d, &b) in dst.iter_mut().zip(s) {
+                *d = b;
+            }
+        }
+        self.len = at + n;
+    }
+
+    fn finish(mut self) -> Vec<u8> {
+        self.buf.truncate(self.len);
+        self.buf
+    }
+}
+
+/// The longest piece [`Out::put`] copies without memcpy.
+const SHORT: usize = 32;
 
 enum Escape {
     Short(u8),
@@ -262,7 +277,8 @@ mod tests {
         let plain = [super::super::SCHEMA, super::super::ENGINE]
             .into_iter()
             .chain(Verdict::ALL.map(Verdict::id))
-            .chain(Tier::ALL.map(Tier::id));
+            .chain(Tier::ALL.map(Tier::id))
+            .chain(super::super::CAUTIONS);
         for s in plain {
             assert_eq!(Escapes::Json.clean_run(s.as_bytes()), s.len(), "{s}");
         }
@@ -271,7 +287,7 @@ mod tests {
     #[test]
     fn the_ids_keys_and_units_of_every_report_need_no_escape() {
         // Figure keys follow the contract's pattern ^[a-z0-9]+(_[a-z0-9]+)*$
-        // (DESIGN "Report v1"); units and ids are the rules' own words. The
+        // (DESIGN "Report v1"); units, ids and fixed labels are the rules' own words. The
         // debug build asserts the same of every report any test writes.
         let key_pattern = |k: &str| {
             !k.is_empty()
@@ -294,6 +310,9 @@ mod tests {
                 for g in &f.figures {
                     assert!(key_pattern(g.key), "{}", g.key);
                     assert_eq!(Escapes::Json.clean_run(g.unit.as_bytes()), g.unit.len());
+                    if let Cow::Borrowed(label) = g.label {
+                        assert_eq!(Escapes::Json.clean_run(label.as_bytes()), label.len());
+                    }
                 }
             }
         }
@@ -308,7 +327,7 @@ mod tests {
     }
 
     #[test]
-    fn both_forms_are_what_serde_json_writes_for_every_escape() {
+    fn the_compact_form_is_what_serde_json_writes_for_every_escape() {
         // RFC 8259 section 7 escapes, at every offset within a word,
         // next to multi-byte UTF-8.
         let tricky = "\"\\\u{8}\t\n\u{c}\r\u{0}\u{1f}\u{7f}é→😀/";
@@ -321,12 +340,23 @@ mod tests {
                     serde_json::to_string(&r).unwrap(),
                     "{text:?}"
                 );
-                assert_eq!(
-                    String::from_utf8(indented(&r)).unwrap(),
-                    serde_json::to_string_pretty(&r).unwrap(),
-                    "{text:?}"
-                );
             }
+        }
+    }
+
+    #[test]
+    fn a_buffer_that_starts_too_small_grows_to_the_same_text() {
+        // Every text length from empty to past the short-copy bound, into a
+        // buffer of one byte, so that each piece lands on the growing path;
+        // serde_json's own rendering is the reference.
+        for n in 0..=2 * SHORT + 3 {
+            let r = report_with(&"x".repeat(n));
+            let mut out = Out::with_room(1);
+            out.report(&r);
+            assert_eq!(
+                String::from_utf8(out.finish()).unwrap(),
+                serde_json::to_string(&r).unwrap()
+            );
         }
     }
 }
