@@ -11,6 +11,11 @@ fn run(text: &str) {
         Some(false),
         "the TOML readers differ on\n{text}"
     );
+    assert_ne!(
+        claim::json_readers_agree(text),
+        Some(false),
+        "the JSON readers differ on\n{text}"
+    );
     if let Ok(claim) = claim::parse_any(text) {
         let report = rules::run_all(&claim);
         for f in &report.findings {
@@ -20,6 +25,18 @@ fn run(text: &str) {
             }
         }
         assert!(report.to_json().contains("liftaudit.report/1"));
+    }
+}
+
+/// A repeatable stream of pseudo-random numbers: Knuth's MMIX linear
+/// congruential generator, its high bits.
+fn numbers(seed: u64) -> impl FnMut() -> usize {
+    let mut state = seed;
+    move || {
+        state = state
+            .wrapping_mul(6364136223846793005)
+            .wrapping_add(1442695040888963407);
+        (state >> 33) as usize
     }
 }
 
@@ -36,11 +53,7 @@ fn every_prefix_of_every_demo_is_handled() {
 fn byte_mutations_of_the_demos_are_handled() {
     // Deterministic mutations: replace one byte with one from a set of troublesome ones.
     let troublesome = b"0-.e9x\"[]{}=\n #\\";
-    let mut state: u64 = 12345;
-    let mut next = || {
-        state = state.wrapping_mul(6364136223846793005).wrapping_add(1);
-        (state >> 33) as usize
-    };
+    let mut next = numbers(12345);
     for d in demo::DEMOS {
         for _ in 0..400 {
             let mut bytes = d.text.as_bytes().to_vec();
@@ -56,7 +69,7 @@ fn byte_mutations_of_the_demos_are_handled() {
 /// A random document from pieces of TOML: plain ones the one-pass reader takes,
 /// and ones it must hand to the general parser (quoted and dotted keys, escapes,
 /// dates, repeated keys and tables, malformed values).
-fn random_toml(next: &mut impl FnMut() -> usize) -> String {
+fn random_toml(next: &mut dyn FnMut() -> usize) -> String {
     const KEYS: &[&str] = &["a", "b", "mass", "count", "at", "k-1", "z_2", "0"];
     const VALUES: &[&str] = &[
         "1",
@@ -132,21 +145,20 @@ fn random_toml(next: &mut impl FnMut() -> usize) -> String {
     text
 }
 
-#[test]
-fn the_two_toml_readers_give_the_same_tree_for_random_documents() {
-    let mut state: u64 = 2024;
-    let mut next = || {
-        state = state
-            .wrapping_mul(6364136223846793005)
-            .wrapping_add(1442695040888963407);
-        (state >> 33) as usize
-    };
+/// Holds one plain reader to its general parser on 20,000 random documents.
+fn readers_agree_on_random_documents(
+    what: &str,
+    seed: u64,
+    mut document: impl FnMut(&mut dyn FnMut() -> usize) -> String,
+    agree: impl Fn(&str) -> Option<bool>,
+) {
+    let mut next = numbers(seed);
     let (mut plain, mut passed_on) = (0, 0);
     for _ in 0..20_000 {
-        let text = random_toml(&mut next);
-        match claim::toml_readers_agree(&text) {
+        let text = document(&mut next);
+        match agree(&text) {
             Some(agree) => {
-                assert!(agree, "the TOML readers differ on\n{text}");
+                assert!(agree, "the {what} readers differ on\n{text}");
                 plain += 1;
             }
             None => passed_on += 1,
@@ -155,7 +167,143 @@ fn the_two_toml_readers_give_the_same_tree_for_random_documents() {
     // The generator must give both kinds in numbers, or it tests nothing.
     assert!(
         plain > 1000 && passed_on > 1000,
-        "{plain} plain, {passed_on} passed on"
+        "{what}: {plain} plain, {passed_on} passed on"
+    );
+}
+
+#[test]
+fn the_two_toml_readers_give_the_same_tree_for_random_documents() {
+    readers_agree_on_random_documents(
+        "TOML",
+        2024,
+        |next| random_toml(next),
+        claim::toml_readers_agree,
+    );
+}
+
+/// The demo sheets as JSON, compact and indented, as clients send them.
+fn demos_as_json() -> Vec<String> {
+    demo::DEMOS
+        .iter()
+        .flat_map(|d| {
+            let value: serde_json::Value = toml::from_str(d.text).expect("a demo is TOML");
+            [
+                serde_json::to_string(&value).unwrap(),
+                serde_json::to_string_pretty(&value).unwrap(),
+            ]
+        })
+        .collect()
+}
+
+#[test]
+fn every_prefix_and_byte_mutation_of_every_demo_as_json_is_handled() {
+    let troublesome = b"0-.eE9x\"\\[]{},: \n\t\x01\x1f";
+    let mut next = numbers(777);
+    let mut plain = 0;
+    for text in demos_as_json() {
+        assert_eq!(claim::json_readers_agree(&text), Some(true), "{text}");
+        for (i, _) in text.char_indices() {
+            run(&text[..i]);
+        }
+        for _ in 0..400 {
+            let mut bytes = text.as_bytes().to_vec();
+            for _ in 0..1 + next() % 3 {
+                let at = next() % bytes.len();
+                bytes[at] = troublesome[next() % troublesome.len()];
+            }
+            let mutated = String::from_utf8_lossy(&bytes);
+            plain += usize::from(claim::json_readers_agree(&mutated).is_some());
+            run(&mutated);
+        }
+    }
+    // Many mutations keep the plain shape (a digit for a digit, a space for a
+    // space), so the agreement is tested on them too.
+    assert!(plain > 500, "{plain} mutations read by the plain reader");
+}
+
+/// A random JSON document from pieces: plain ones the one-pass reader takes,
+/// and ones it must hand to serde_json (signs, fractions and exponents,
+/// escapes and control bytes, repeated keys, deep nesting, malformed ones).
+fn random_json(next: &mut dyn FnMut() -> usize, depth: usize) -> String {
+    const KEYS: &[&str] = &["a", "b", "mass", "", "é", "a\\n", "\\u0061", "k\"", "a"];
+    const VALUES: &[&str] = &[
+        "1",
+        "0",
+        "-0",
+        "-2",
+        "01",
+        "1.5",
+        "-0.25",
+        "1e3",
+        "6.02E+23",
+        "1.",
+        ".5",
+        "1e",
+        "123456789012345678",
+        "1234567890123456789",
+        "18446744073709551616",
+        "1e400",
+        "true",
+        "false",
+        "null",
+        "truex",
+        "nul",
+        "\"s\"",
+        "\"\"",
+        "\"e\\n\"",
+        "\"\\u00e9\"",
+        "\"t\tab\"",
+        "\"\u{1f}\"",
+        "\"\u{b0}\"",
+        "\"open",
+        "[]",
+        "{}",
+        "[1,]",
+        "{,}",
+        "",
+        "x",
+    ];
+    const SPACES: &[&str] = &["", "", " ", "\n", "\t", "\r\n", "\u{a0}"];
+    let space = |next: &mut dyn FnMut() -> usize| SPACES[next() % SPACES.len()];
+    let value = |next: &mut dyn FnMut() -> usize| VALUES[next() % VALUES.len()].to_string();
+    let mut text = String::new();
+    let n = next() % 5;
+    let object = depth == 0 || !next().is_multiple_of(3);
+    text.push(if object { '{' } else { '[' });
+    for i in 0..n {
+        if i > 0 {
+            text.push_str(if next().is_multiple_of(30) { ",," } else { "," });
+        }
+        text.push_str(space(next));
+        if object {
+            text.push('"');
+            text.push_str(KEYS[next() % KEYS.len()]);
+            text.push('"');
+            text.push_str(space(next));
+            text.push_str(if next().is_multiple_of(40) { "=" } else { ":" });
+            text.push_str(space(next));
+        }
+        if depth < 10 && next().is_multiple_of(4) {
+            text.push_str(&random_json(next, depth + 1));
+        } else {
+            text.push_str(&value(next));
+        }
+        text.push_str(space(next));
+    }
+    text.push(if object { '}' } else { ']' });
+    if depth == 0 && next().is_multiple_of(20) {
+        text.push_str(" x");
+    }
+    text
+}
+
+#[test]
+fn the_two_json_readers_give_the_same_tree_for_random_documents() {
+    readers_agree_on_random_documents(
+        "JSON",
+        99,
+        |next| random_json(next, 0),
+        claim::json_readers_agree,
     );
 }
 

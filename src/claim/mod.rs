@@ -8,6 +8,7 @@
 //! senses are as seen from above.
 
 pub mod demo;
+mod plain_json;
 mod plain_toml;
 mod read;
 mod tree;
@@ -59,6 +60,12 @@ pub fn parse_any(text: &str) -> Result<Claim, Error> {
 #[doc(hidden)]
 pub fn toml_readers_agree(text: &str) -> Option<bool> {
     tree::toml_readers_agree(text)
+}
+
+/// The same for the one-pass reader of plain JSON sheets against serde_json.
+#[doc(hidden)]
+pub fn json_readers_agree(text: &str) -> Option<bool> {
+    tree::json_readers_agree(text)
 }
 
 /// The format a sheet's text looks like.

@@ -16,11 +16,7 @@ use std::borrow::Cow;
 
 use super::tree::Node;
 
-/// Arrays, inline tables and headers nested deeper than this go to the general
-/// parser; so do tables with more keys than `MAX_KEYS`, which keeps the search
-/// for a repeated key short.
-const MAX_DEPTH: usize = 8;
-const MAX_KEYS: usize = 64;
+use super::tree::{MAX_DEPTH, MAX_KEYS};
 
 /// The tree of a plain sheet, or `None` for the general parser to read it.
 pub(super) fn read(text: &str) -> Option<Node<'_>> {

@@ -10,7 +10,13 @@ use serde::de::{self, Deserialize, Deserializer, MapAccess, SeqAccess, Visitor};
 use toml::de::{DeTable, DeValue};
 use toml::Spanned;
 
-use super::{plain_toml, Error, Format};
+use super::{plain_json, plain_toml, Error, Format};
+
+/// Arrays, tables and headers nested deeper than this go from the plain readers
+/// (`plain_toml`, `plain_json`) to the general parsers; so do tables with more
+/// keys than `MAX_KEYS`, which keeps the search for a repeated key short.
+pub(super) const MAX_DEPTH: usize = 8;
+pub(super) const MAX_KEYS: usize = 64;
 
 /// A value of a parsed sheet, before any field is interpreted; its strings
 /// borrow from the sheet's text where they need no unescaping.
@@ -80,7 +86,24 @@ fn toml_error(text: &str, message: &str, span: Option<Range<usize>>) -> Error {
 }
 
 /// Parses JSON text into a tree; a syntax error carries line and column.
+///
+/// A sheet of the plain shape is read in one pass (`plain_json`); anything
+/// else, every error included, goes to serde_json.
 pub fn from_json(text: &str) -> Result<Node<'_>, Error> {
+    match plain_json::read(text) {
+        Some(tree) => Ok(tree),
+        None => from_json_general(text),
+    }
+}
+
+/// What the plain JSON reader makes of a text against serde_json, as
+/// [`toml_readers_agree`] says it of the TOML readers.
+pub fn json_readers_agree(text: &str) -> Option<bool> {
+    plain_json::read(text).map(|tree| serde_json::from_str::<Node>(text).is_ok_and(|t| t == tree))
+}
+
+/// Parses JSON text with serde_json.
+fn from_json_general(text: &str) -> Result<Node<'_>, Error> {
     match serde_json::from_str::<Node>(text) {
         Ok(node @ Node::Table(_)) => Ok(node),
         Ok(other) => Err(Error::Syntax {

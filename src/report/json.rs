@@ -6,7 +6,7 @@
 //! serde_json looks at every byte of a string on its own before copying it,
 //! and the report is mostly text (hover-lamp: 250 strings, 8 kB of 12 kB).
 //! Here the runs with nothing to escape are found sixteen bytes at a time
-//! ([`super::scan`]) and copied whole; the punctuation and member names,
+//! ([`crate::scan`]) and copied whole; the punctuation and member names,
 //! whose places the contract fixes, are copied as whole constant pieces
 //! (`,"label":"`), and our own words (ids, keys, units, fixed labels,
 //! cautions) without a look. Numbers are still written by serde_json, so
@@ -16,8 +16,8 @@ use std::borrow::Cow;
 
 use serde::Serialize;
 
-use super::scan::Escapes;
 use super::{Figure, Finding, Report};
+use crate::scan::Escapes;
 
 /// The report as one line of JSON, for clients that parse it.
 pub fn compact(report: &Report) -> Vec<u8> {

@@ -7,7 +7,6 @@
 pub mod json;
 pub mod numbers;
 pub mod say;
-pub mod scan;
 mod text;
 
 use std::borrow::Cow;

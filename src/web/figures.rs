@@ -15,8 +15,8 @@ use crate::rules::control_authority::{self, LayoutView};
 
 use super::layout;
 use crate::report::say::{self, say, say_to, Joined, Piece};
-use crate::report::scan::Escapes;
 use crate::report::{push_fixed, Fixed, Sig3};
+use crate::scan::Escapes;
 
 /// One drawing for the page, or the reason it is not drawn.
 #[derive(Debug, Clone)]

@@ -12,9 +12,9 @@ use axum::http::StatusCode;
 use crate::catalog::tiers::{self, Tier};
 use crate::claim::Claim;
 use crate::report::say::{say, say_to, Piece};
-use crate::report::scan::Escapes;
 use crate::report::{sig3, Figure, Finding, Report, Sig3, Verdict};
 use crate::rules::{self, control_authority::LayoutView};
+use crate::scan::Escapes;
 use crate::sources::{self, Source};
 
 use super::figures::{self, Drawing};

@@ -6,7 +6,8 @@
 //! rendering a verdict page (callgrind, `render-json-compact` and
 //! `render-page`). On x86-64 the run before the next such byte is found
 //! with SSE2 compares, sixteen bytes to an instruction; elsewhere byte by
-//! byte.
+//! byte. The same JSON class ends a string in the plain JSON sheet reader
+//! (`claim::plain_json`): a string holds none of those bytes as they are.
 
 use std::fmt;
 
