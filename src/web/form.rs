@@ -436,41 +436,41 @@ pub fn urlencoded_pairs(body: &[u8]) -> Vec<(String, String)> {
 }
 
 fn percent_decoded(part: &[u8]) -> String {
-    let hex = |b: u8| (b as char).to_digit(16);
-    let mut out = Vec::with_capacity(part.len());
+    // Byte by byte into room for all of them: decoding never lengthens a part
+    // (`+` is one byte for one, `%XX` one for three), and between escapes a
+    // sheet's runs are a word long, too short to copy whole.
+    let mut out = vec![0; part.len()];
+    let mut len = 0;
     let mut i = 0;
-    while i < part.len() {
-        // The run up to the next byte to decode, copied whole.
-        let run = part[i..]
-            .iter()
-            .position(|&b| b == b'%' || b == b'+')
-            .unwrap_or(part.len() - i);
-        out.extend_from_slice(&part[i..i + run]);
-        i += run;
-        match part.get(i) {
-            Some(b'+') => {
-                out.push(b' ');
-                i += 1;
-            }
-            Some(_) => match (
-                part.get(i + 1).and_then(|&b| hex(b)),
-                part.get(i + 2).and_then(|&b| hex(b)),
+    while let Some(&b) = part.get(i) {
+        let (byte, step) = match b {
+            b'+' => (b' ', 1),
+            b'%' => match (
+                part.get(i + 1).and_then(|&h| hex_digit(h)),
+                part.get(i + 2).and_then(|&l| hex_digit(l)),
             ) {
-                (Some(high), Some(low)) => {
-                    out.push((high * 16 + low) as u8);
-                    i += 3;
-                }
-                _ => {
-                    out.push(b'%');
-                    i += 1;
-                }
+                (Some(high), Some(low)) => (high << 4 | low, 3),
+                _ => (b'%', 1),
             },
-            None => {}
-        }
+            _ => (b, 1),
+        };
+        out[len] = byte;
+        len += 1;
+        i += step;
     }
+    out.truncate(len);
     match String::from_utf8(out) {
         Ok(text) => text,
         Err(e) => String::from_utf8_lossy(e.as_bytes()).into_owned(),
+    }
+}
+
+fn hex_digit(b: u8) -> Option<u8> {
+    match b {
+        b'0'..=b'9' => Some(b - b'0'),
+        b'a'..=b'f' => Some(b - b'a' + 10),
+        b'A'..=b'F' => Some(b - b'A' + 10),
+        _ => None,
     }
 }
 

@@ -384,7 +384,7 @@ impl Piece for Lower {
 }
 
 #[derive(Template)]
-#[template(path = "verdict.html")]
+#[template(path = "verdict.html", whitespace = "minimize")]
 pub struct VerdictPage<'a> {
     pub title: Text<'a>,
     pub source: Option<Text<'a>>,
