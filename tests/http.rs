@@ -190,7 +190,7 @@ async fn every_demo_page_shows_its_verdict_findings_links_and_cautions() {
             assert!(a
                 .body
                 .contains(&format!("href=\"/methods#rule-{}\"", f.rule)));
-            for s in &f.sources {
+            for s in f.sources {
                 assert!(
                     a.body.contains(&format!("href=\"/methods#source-{s}\"")),
                     "{s}"

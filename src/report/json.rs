@@ -38,7 +38,7 @@ impl Out {
         self.list(&report.findings, Out::finding);
         // The cautions are ours (report::CAUTIONS), held escape-free by a test.
         self.put(b",\"cautions\":");
-        self.list(&report.cautions, |out, c| out.plain(c));
+        self.list(report.cautions, |out, c| out.plain(c));
         self.put(b",\"engine\":\"");
         self.put(ours(report.engine));
         self.put(b"\"}");
@@ -58,7 +58,7 @@ impl Out {
         self.put(b",\"assumptions\":");
         self.list(&f.assumptions, |out, a| out.text(a));
         self.put(b",\"sources\":");
-        self.list(&f.sources, |out, id| out.plain(id));
+        self.list(f.sources, |out, id| out.plain(id));
         self.byte(b'}');
     }
 
@@ -267,7 +267,7 @@ mod tests {
             figures: vec![figure(Some(Tier::Typical)), figure(None)],
             would_take: String::new(),
             assumptions: vec![text.to_string(), String::new()],
-            sources: Vec::new(),
+            sources: &[],
         };
         Report::new(text.to_string(), vec![finding.clone(), finding])
     }
@@ -303,7 +303,7 @@ mod tests {
             let report = crate::rules::run_all(&crate::claim::parse_any(d.text).unwrap());
             for f in &report.findings {
                 assert_eq!(Escapes::Json.clean_run(f.rule.as_bytes()), f.rule.len());
-                for id in &f.sources {
+                for id in f.sources {
                     assert!(sources.contains(id), "{id}");
                     assert_eq!(Escapes::Json.clean_run(id.as_bytes()), id.len(), "{id}");
                 }

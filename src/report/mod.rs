@@ -142,7 +142,8 @@ pub struct Finding {
     pub figures: Vec<Figure>,
     pub would_take: String,
     pub assumptions: Vec<String>,
-    pub sources: Vec<&'static str>,
+    // Ids in `sources.rs`; each rule cites a fixed list.
+    pub sources: &'static [&'static str],
 }
 
 impl Finding {
@@ -155,7 +156,7 @@ impl Finding {
             figures: Vec::new(),
             would_take: format!("State {needs} on the sheet."),
             assumptions: Vec::new(),
-            sources: Vec::new(),
+            sources: &[],
         }
     }
 
@@ -172,7 +173,7 @@ pub struct Report {
     pub title: String,
     pub verdict: Verdict,
     pub findings: Vec<Finding>,
-    pub cautions: Vec<&'static str>,
+    pub cautions: &'static [&'static str],
     pub engine: &'static str,
 }
 
@@ -193,7 +194,7 @@ impl Report {
             title,
             verdict: Verdict::worst(findings.iter().map(|f| f.verdict)),
             findings,
-            cautions: CAUTIONS.to_vec(),
+            cautions: &CAUTIONS,
             engine: ENGINE,
         }
     }
@@ -248,7 +249,7 @@ mod tests {
             ],
             would_take: "w".into(),
             assumptions: vec!["a".into()],
-            sources: vec!["isa"],
+            sources: &["isa"],
         };
         let v: serde_json::Value =
             serde_json::from_str(&Report::new("t".into(), vec![finding]).to_json()).unwrap();

@@ -148,7 +148,7 @@ pub fn render_text(report: &Report, color: bool) -> String {
     }
     let _ = writeln!(s);
     let _ = writeln!(s, "Cautions:");
-    for c in &report.cautions {
+    for c in report.cautions {
         let _ = writeln!(s, "  ! {c}");
     }
     let _ = writeln!(s, "({})", report.engine);
@@ -187,7 +187,7 @@ mod tests {
                 .collect(),
             would_take: "w".into(),
             assumptions: vec![],
-            sources: vec!["isa"],
+            sources: &["isa"],
         };
         let text = render_text(&Report::new("T".into(), vec![finding]), false);
         assert!(!text.contains('\x1b'));

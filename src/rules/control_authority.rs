@@ -285,7 +285,7 @@ fn assess(claim: &Claim, an: &Analysis) -> Finding {
         "Tilt actuators linearised at hover, each rotor carrying an equal share of the weight."
             .to_string(),
     );
-    let sources = vec!["du-2015", "statics"];
+    let sources: &[&str] = &["du-2015", "statics"];
 
     // 1. Rank: an axis no actuator can command cannot be held at any thrust.
     if a.rank < 4 {

@@ -319,7 +319,7 @@ pub fn check(claim: &Claim) -> Finding {
         figures,
         would_take,
         assumptions,
-        sources: vec![
+        sources: &[
             "momentum-theory",
             "battery-energy",
             "endurance-ceiling",

@@ -368,7 +368,7 @@ pub fn check(claim: &Claim) -> Finding {
         figures,
         would_take,
         assumptions,
-        sources: vec![
+        sources: &[
             "rigid-body",
             "feedback-stability",
             "reaction-time",

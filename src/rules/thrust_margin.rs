@@ -259,7 +259,7 @@ pub fn check(claim: &Claim) -> Finding {
         figures,
         would_take: would_take(claim, &est, w, &air),
         assumptions: assumptions(claim, &est, &air),
-        sources: vec!["isa", "momentum-theory"],
+        sources: &["isa", "momentum-theory"],
     }
 }
 

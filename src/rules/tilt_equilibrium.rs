@@ -247,7 +247,7 @@ pub fn check(claim: &Claim) -> Finding {
         figures,
         would_take,
         assumptions,
-        sources: vec!["statics", "hoerner-1965", "isa"],
+        sources: &["statics", "hoerner-1965", "isa"],
     }
 }
 

@@ -999,7 +999,7 @@ mod tests {
             figures,
             would_take: String::new(),
             assumptions: Vec::new(),
-            sources: Vec::new(),
+            sources: &[],
         }
     }
 
