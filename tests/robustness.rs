@@ -103,6 +103,9 @@ fn random_toml(next: &mut dyn FnMut() -> usize) -> String {
         "\"\"\"m\"\"\"",
         "\"t\tab\"",
         "\"\u{b0}\"",
+        "\"d\u{7f}l\"",
+        "'d\u{7f}l'",
+        "\"c\u{1}l\"",
         "1979-05-27",
         "07:32:00",
         "[]",
@@ -127,7 +130,18 @@ fn random_toml(next: &mut dyn FnMut() -> usize) -> String {
         "[ {k} ]",
         "[\"{k}\"]",
     ];
-    const ENDS: &[&str] = &["\n", "\r\n", " # note\n", "\t\n", "\r", " x\n", "\n\n"];
+    const ENDS: &[&str] = &[
+        "\n",
+        "\r\n",
+        " # note\n",
+        " # a \"quoted\" \\ note\twith a tab\n",
+        " # del \u{7f}\n",
+        " # ctl \u{1}\n",
+        "\t\n",
+        "\r",
+        " x\n",
+        "\n\n",
+    ];
     let mut text = String::new();
     for _ in 0..(1 + next() % 8) {
         let key = KEYS[next() % KEYS.len()];
@@ -140,7 +154,12 @@ fn random_toml(next: &mut dyn FnMut() -> usize) -> String {
             _ => format!("{key} = {value}"),
         };
         text.push_str(&line);
-        text.push_str(ENDS[next() % ENDS.len()]);
+        // Half the lines end plainly, so that plain documents stay common.
+        text.push_str(if next().is_multiple_of(2) {
+            "\n"
+        } else {
+            ENDS[next() % ENDS.len()]
+        });
     }
     text
 }

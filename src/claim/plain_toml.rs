@@ -14,9 +14,8 @@
 
 use std::borrow::Cow;
 
-use super::tree::Node;
-
-use super::tree::{MAX_DEPTH, MAX_KEYS};
+use super::tree::{Node, MAX_DEPTH, MAX_KEYS};
+use crate::scan::Escapes;
 
 /// The tree of a plain sheet, or `None` for the general parser to read it.
 pub(super) fn read(text: &str) -> Option<Node<'_>> {
@@ -139,6 +138,36 @@ impl<'t> Table<'t> {
     }
 }
 
+/// The bytes of a bare key: ASCII letters, digits, `_` and `-`.
+const KEY_BYTES: [bool; 256] = {
+    let mut table = [false; 256];
+    let mut b = 0;
+    while b < 256 {
+        let c = b as u8;
+        table[b] = c.is_ascii_alphanumeric() || c == b'_' || c == b'-';
+        b += 1;
+    }
+    table
+};
+
+/// The length of the run at the start of `bytes` up to the first control
+/// byte other than tab, or (`in_comment` false, for a basic string) the
+/// first `"` or `\`; `None` if the run holds a DEL, which TOML allows in
+/// neither. The JSON escape class marks all of those bytes but tab, sixteen
+/// at a time ([`Escapes::clean_run`]).
+fn text_run(bytes: &[u8], in_comment: bool) -> Option<usize> {
+    let mut at = 0;
+    loop {
+        at += Escapes::Json.clean_run(&bytes[at..]);
+        match bytes.get(at) {
+            Some(b'\t') => at += 1,
+            Some(b'"' | b'\\') if in_comment => at += 1,
+            _ => break,
+        }
+    }
+    (!bytes[..at].contains(&0x7f)).then_some(at)
+}
+
 /// A table node with its entries in key order (keys are distinct).
 fn sorted<'t>(mut entries: Vec<(Cow<'t, str>, Node<'t>)>) -> Node<'t> {
     entries.sort_unstable_by(|a, b| a.0.cmp(&b.0));
@@ -199,10 +228,7 @@ impl<'t> Reader<'t> {
     /// not allowed in one.
     fn comment(&mut self) -> Option<()> {
         let rest = &self.bytes[self.at + 1..];
-        let end = rest
-            .iter()
-            .position(|&b| (b < 0x20 && b != b'\t') || b == 0x7f)
-            .unwrap_or(rest.len());
+        let end = text_run(rest, true)?;
         if !matches!(rest.get(end), None | Some(b'\n' | b'\r')) {
             return None;
         }
@@ -231,7 +257,7 @@ impl<'t> Reader<'t> {
         let start = self.at;
         let len = self.bytes[start..]
             .iter()
-            .position(|&b| !(b.is_ascii_alphanumeric() || b == b'_' || b == b'-'))
+            .position(|&b| !KEY_BYTES[usize::from(b)])
             .unwrap_or(self.bytes.len() - start);
         self.at += len;
         (len > 0).then(|| &self.text[start..self.at])
@@ -317,11 +343,13 @@ impl<'t> Reader<'t> {
         if rest.starts_with(&[quote, quote]) {
             return None; // a multi-line string
         }
-        let basic = quote == b'"';
-        let len = rest.iter().position(|&b| {
-            b == quote || (basic && b == b'\\') || (b < 0x20 && b != b'\t') || b == 0x7f
-        })?;
-        if rest[len] != quote {
+        let len = if quote == b'"' {
+            text_run(rest, false)?
+        } else {
+            rest.iter()
+                .position(|&b| b == quote || (b < 0x20 && b != b'\t') || b == 0x7f)?
+        };
+        if rest.get(len) != Some(&quote) {
             return None;
         }
         self.at = start + len + 1;

@@ -25,7 +25,8 @@ const MAX_ROTORS: i64 = 64;
 const MAX_CELLS: i64 = 24;
 const MAX_PARTS: usize = 500;
 const MAX_TEXT: usize = 500;
-/// Keys the largest table reader asks for, with repeats.
+/// Room for the keys a table reader asks for, with repeats: the largest
+/// asks for 14 today, and the debug build (every test) asserts the room.
 const KEYS: usize = 16;
 
 /// Collected field errors.
@@ -66,8 +67,10 @@ impl fmt::Display for Path<'_> {
 struct Table<'a, 'p> {
     path: Path<'p>,
     entries: &'a [(Cow<'a, str>, Node<'a>)],
-    /// Keys asked for, found or not, for the unknown-key message.
-    taken: Vec<&'static str>,
+    /// Keys asked for, found or not, for the unknown-key message: the first
+    /// `asked`, kept in place (no reader asks for more than `KEYS`).
+    taken: [&'static str; KEYS],
+    asked: usize,
     /// One bit for each of the first 64 entries that was found.
     found: u64,
 }
@@ -78,7 +81,8 @@ impl<'a, 'p> Table<'a, 'p> {
             Node::Table(entries) => Some(Table {
                 path,
                 entries,
-                taken: Vec::with_capacity(KEYS),
+                taken: [""; KEYS],
+                asked: 0,
                 found: 0,
             }),
             other => {
@@ -94,7 +98,11 @@ impl<'a, 'p> Table<'a, 'p> {
     }
 
     fn get(&mut self, key: &'static str) -> Option<&'a Node<'a>> {
-        self.taken.push(key);
+        debug_assert!(self.asked < KEYS, "a reader asks for more than KEYS keys");
+        if let Some(slot) = self.taken.get_mut(self.asked) {
+            *slot = key;
+            self.asked += 1;
+        }
         let i = self.entries.iter().position(|(k, _)| k == key)?;
         if i < 64 {
             self.found |= 1 << i;
@@ -256,13 +264,13 @@ impl<'a, 'p> Table<'a, 'p> {
             .entries
             .iter()
             .map(|(key, _)| key.as_ref())
-            .filter(|key| !self.taken.contains(key))
+            .filter(|key| !self.taken[..self.asked].contains(key))
             .collect();
         if unknown.is_empty() {
             return;
         }
         unknown.sort_unstable();
-        let mut known = self.taken.clone();
+        let mut known = self.taken[..self.asked].to_vec();
         known.sort_unstable();
         known.dedup();
         let message = format!("unknown key; this table takes {}", known.join(", "));

@@ -301,7 +301,8 @@ fn independent_rows(m: &Matrix4xX<f64>, scale: f64) -> [bool; 4] {
         }
         let length = r.norm();
         if length > TOL * scale {
-            basis.push(r / length);
+            r.unscale_mut(length);
+            basis.push(r);
             *flag = true;
         }
     }
@@ -321,7 +322,7 @@ pub fn authority(b: &Matrix4xX<f64>) -> Authority {
     let scale = sigma.first().copied().unwrap_or(0.0);
     let rank = sigma.iter().filter(|&&v| v > TOL * scale).count();
     // Left null space: directions of force and moment that no actuator produces.
-    let null: Vec<&Vector4<f64>> = u[rank..].iter().collect();
+    let null = &u[rank..];
     let unmoved: Vec<Axis> = Axis::ALL
         .into_iter()
         .enumerate()

@@ -15,7 +15,7 @@ use serde::Serialize;
 use utoipa::ToSchema;
 
 pub use crate::catalog::tiers::Tier;
-pub use numbers::{push_fixed, sig3, Fixed, Sig3};
+pub use numbers::{push_fixed, sig3, Fixed, Sig3, Tenths};
 pub use text::render_text;
 
 pub const SCHEMA: &str = "liftaudit.report/1";

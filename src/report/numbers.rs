@@ -15,6 +15,13 @@ use std::fmt;
 #[derive(Debug, Clone, Copy)]
 pub struct Fixed(pub f64, pub usize);
 
+/// [`Fixed`]`(v, 1)` with its one place known when compiled: the drawings
+/// write hundreds of coordinates a page, and this goes to the one-place
+/// writer without the dispatch on the places (the same digits, as the
+/// tests check).
+#[derive(Debug, Clone, Copy)]
+pub struct Tenths(pub f64);
+
 impl fmt::Display for Fixed {
     fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
         self.write_to(f)
@@ -49,7 +56,7 @@ pub fn push_fixed(out: &mut String, v: f64, places: usize) {
 /// (see [`fast_fixed`]), the digits are worked out in a few instructions
 /// and eight bytes copied at once; anything else goes the general way.
 #[inline(always)]
-fn push_tenths(out: &mut String, v: f64) {
+pub(crate) fn push_tenths(out: &mut String, v: f64) {
     let scaled = v.abs() * 10.0;
     if scaled < 99_999.0 {
         if let Some(n) = rounded_off_a_tie(scaled) {
@@ -526,6 +533,9 @@ mod tests {
                 push_fixed(&mut pushed, v, places);
                 assert_eq!(pushed, format!("x{expected}"), "{v:?} to {places}");
             }
+            let mut tenths = String::from("x");
+            crate::report::say::Piece::push_to(&Tenths(v), &mut tenths);
+            assert_eq!(tenths, format!("x{v:.1}"), "{v:?} in tenths");
         }
     }
 

@@ -10,7 +10,7 @@
 use std::borrow::Cow;
 use std::fmt::Write as _;
 
-use super::numbers::{push_fixed, sig3_places, Fixed, Sig3};
+use super::numbers::{push_fixed, push_tenths, sig3_places, Fixed, Sig3, Tenths};
 use crate::catalog::Basis;
 
 /// One piece of a sentence: text as it is, or a number in its words.
@@ -242,6 +242,17 @@ impl Piece for Fixed {
     }
     fn push_to(&self, out: &mut String) {
         push_fixed(out, self.0, self.1);
+    }
+}
+
+impl Piece for Tenths {
+    #[inline(always)]
+    fn size(&self) -> usize {
+        13
+    }
+    #[inline(always)]
+    fn push_to(&self, out: &mut String) {
+        push_tenths(out, self.0);
     }
 }
 

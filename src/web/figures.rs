@@ -15,7 +15,7 @@ use crate::rules::control_authority::{self, LayoutView};
 
 use super::layout;
 use crate::report::say::{self, say, say_to, Joined, Piece};
-use crate::report::{push_fixed, Fixed, Sig3};
+use crate::report::{push_fixed, Fixed, Sig3, Tenths};
 use crate::scan::Escapes;
 
 /// One drawing for the page, or the reason it is not drawn.
@@ -88,9 +88,9 @@ fn push_escaped(out: &mut String, text: &str) {
     let _ = Escapes::Html.write(out, text, svg_entity);
 }
 
-/// A coordinate, as `{:.1}` writes it (see [`Fixed`]).
-fn d1(v: f64) -> Fixed {
-    Fixed(v, 1)
+/// A coordinate, as `{:.1}` writes it (see [`Fixed`] and [`Tenths`]).
+fn d1(v: f64) -> Tenths {
+    Tenths(v)
 }
 
 /// A tiny SVG writer: shapes with presentation attributes only (no `style`),
