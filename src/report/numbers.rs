@@ -81,41 +81,37 @@ fn tenths_ascii(n: u64, negative: bool) -> ([u8; 16], usize) {
 }
 
 /// Writes `whole` (below 10^6) at `at` in `b`, most significant digit
-/// first, two at a time; where it ends.
+/// first, two at a time; where it ends. The magnitude is tested first, so a
+/// coordinate or a table value (below 1000) costs one division at most.
 #[inline(always)]
 fn whole_ascii(b: &mut [u8; 16], at: usize, whole: usize) -> usize {
     let pair = |k: usize| [DIGIT_PAIRS[2 * k], DIGIT_PAIRS[2 * k + 1]];
-    let mut at = at;
-    let mut digit = |b: &mut [u8; 16], d: usize| {
-        b[at] = b'0' + d as u8;
-        at += 1;
-    };
-    let (top, rest) = (whole / 10_000, whole % 10_000);
-    let (high, low) = (rest / 100, rest % 100);
-    if whole >= 10_000 {
-        if top >= 10 {
-            [b[at], b[at + 1]] = pair(top);
-            at += 2;
-        } else {
-            digit(b, top);
-        }
-        [b[at], b[at + 1]] = pair(high);
-        [b[at + 2], b[at + 3]] = pair(low);
-        at + 4
-    } else if whole >= 1000 {
-        [b[at], b[at + 1]] = pair(high);
-        [b[at + 2], b[at + 3]] = pair(low);
-        at + 4
-    } else if whole >= 100 {
-        digit(b, high);
-        [b[at], b[at + 1]] = pair(low);
+    if whole < 10 {
+        b[at] = b'0' + whole as u8;
+        at + 1
+    } else if whole < 100 {
+        [b[at], b[at + 1]] = pair(whole);
         at + 2
-    } else if whole >= 10 {
-        [b[at], b[at + 1]] = pair(low);
-        at + 2
+    } else if whole < 1000 {
+        b[at] = b'0' + (whole / 100) as u8;
+        [b[at + 1], b[at + 2]] = pair(whole % 100);
+        at + 3
+    } else if whole < 10_000 {
+        [b[at], b[at + 1]] = pair(whole / 100);
+        [b[at + 2], b[at + 3]] = pair(whole % 100);
+        at + 4
     } else {
-        digit(b, low);
-        at
+        let (top, rest) = (whole / 10_000, whole % 10_000);
+        let at = if top >= 10 {
+            [b[at], b[at + 1]] = pair(top);
+            at + 2
+        } else {
+            b[at] = b'0' + top as u8;
+            at + 1
+        };
+        [b[at], b[at + 1]] = pair(rest / 100);
+        [b[at + 2], b[at + 3]] = pair(rest % 100);
+        at + 4
     }
 }
 
