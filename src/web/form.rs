@@ -436,27 +436,28 @@ pub fn urlencoded_pairs(body: &[u8]) -> Vec<(String, String)> {
 }
 
 fn percent_decoded(part: &[u8]) -> String {
-    // Byte by byte into room for all of them: decoding never lengthens a part
-    // (`+` is one byte for one, `%XX` one for three), and between escapes a
-    // sheet's runs are a word long, too short to copy whole.
+    // Into room for all of them: decoding never lengthens a part (`+` is one
+    // byte for one, `%XX` one for three), so the byte written at `len` is
+    // never past the one read at `i`. Between escapes a sheet's runs are a
+    // word long, too short to copy whole, so it goes byte by byte, with the
+    // hex digits read from a table rather than tested by range.
     let mut out = vec![0; part.len()];
     let mut len = 0;
     let mut i = 0;
-    while let Some(&b) = part.get(i) {
-        let (byte, step) = match b {
-            b'+' => (b' ', 1),
-            b'%' => match (
-                part.get(i + 1).and_then(|&h| hex_digit(h)),
-                part.get(i + 2).and_then(|&l| hex_digit(l)),
-            ) {
-                (Some(high), Some(low)) => (high << 4 | low, 3),
-                _ => (b'%', 1),
-            },
-            _ => (b, 1),
-        };
+    while i < part.len() {
+        let mut byte = part[i];
+        i += 1;
+        if byte == b'+' {
+            byte = b' ';
+        } else if byte == b'%' && i + 1 < part.len() {
+            let (high, low) = (HEX[usize::from(part[i])], HEX[usize::from(part[i + 1])]);
+            if high | low < 16 {
+                byte = high << 4 | low;
+                i += 2;
+            }
+        }
         out[len] = byte;
         len += 1;
-        i += step;
     }
     out.truncate(len);
     match String::from_utf8(out) {
@@ -465,14 +466,22 @@ fn percent_decoded(part: &[u8]) -> String {
     }
 }
 
-fn hex_digit(b: u8) -> Option<u8> {
-    match b {
-        b'0'..=b'9' => Some(b - b'0'),
-        b'a'..=b'f' => Some(b - b'a' + 10),
-        b'A'..=b'F' => Some(b - b'A' + 10),
-        _ => None,
+/// The value of each byte as a hex digit, or 0xf0 (16 or more, whichever
+/// digit it is or-ed with) for a byte that is not one.
+const HEX: [u8; 256] = {
+    let mut table = [0xf0; 256];
+    let mut b = 0;
+    while b < 256 {
+        table[b] = match b as u8 {
+            d @ b'0'..=b'9' => d - b'0',
+            d @ b'a'..=b'f' => d - b'a' + 10,
+            d @ b'A'..=b'F' => d - b'A' + 10,
+            _ => 0xf0,
+        };
+        b += 1;
     }
-}
+    table
+};
 
 #[cfg(test)]
 mod tests {
