@@ -15,7 +15,7 @@ use crate::rules::control_authority::{self, LayoutView};
 
 use super::layout;
 use crate::report::say::{self, say, say_to, Joined, Piece};
-use crate::report::{push_fixed, Fixed, Sig3, Tenths};
+use crate::report::{Fixed, Sig3, Tenths};
 use crate::scan::Escapes;
 
 /// One drawing for the page, or the reason it is not drawn.
@@ -62,14 +62,109 @@ pub fn all(report: &Report, claim: &Claim, checked: Option<&LayoutView>) -> Vec<
     .collect()
 }
 
-const INK: &str = "#1f2430";
-const THRUST: &str = "#0f5c63";
-const FORCE: &str = "#8a1c2b";
-const MUTED: &str = "#6b7080";
+/// The colours of the drawings' strokes and type, as literals, so that
+/// [`pen!`] and [`face!`] can spell out their markup when compiled.
+macro_rules! colour {
+    (ink) => {
+        "#1f2430"
+    };
+    (thrust) => {
+        "#0f5c63"
+    };
+    (force) => {
+        "#8a1c2b"
+    };
+    (muted) => {
+        "#6b7080"
+    };
+}
+
+const INK: &str = colour!(ink);
+const THRUST: &str = colour!(thrust);
+const FORCE: &str = colour!(force);
 const PAPER: &str = "#fbfaf6";
 const FILL_A: &str = "#9cc7c4";
 const FILL_B: &str = "#e3c58d";
 const DISC: &str = "#eef5f4";
+
+/// A stroke: its width (which also sizes an arrowhead), its colour (which
+/// fills the head), and both as the markup that ends a line, spelt out when
+/// compiled. A drawing has dozens of strokes and a few kinds of pen, so the
+/// attributes are one copy rather than two numbers and two words each time.
+#[derive(Debug, Clone, Copy)]
+struct Pen {
+    width: f64,
+    /// The width as [`Fixed`]`(width, 1)` writes it.
+    width_text: &'static str,
+    colour: &'static str,
+    /// `" stroke-width="{width}" stroke="{colour}`: after a number, before the end.
+    attrs: &'static str,
+}
+
+/// A [`Pen`] of a colour named as [`colour!`] names it and a width written
+/// with one decimal (checked when compiled: the markup is the literal as
+/// written, which is what `{:.1}` writes only for one decimal).
+macro_rules! pen {
+    ($colour:ident, $width:literal) => {
+        Pen {
+            width: const {
+                assert!(one_decimal(stringify!($width)));
+                $width
+            },
+            width_text: stringify!($width),
+            colour: colour!($colour),
+            attrs: concat!(
+                "\" stroke-width=\"",
+                stringify!($width),
+                "\" stroke=\"",
+                colour!($colour)
+            ),
+        }
+    };
+}
+
+/// How a text is set: anchor (start, middle or end), type size and colour,
+/// as the markup that ends its start tag, spelt out when compiled as a
+/// [`Pen`] is.
+#[derive(Debug, Clone, Copy)]
+struct Face(&'static str);
+
+macro_rules! face {
+    ($anchor:literal, $size:literal, $colour:ident) => {
+        Face(
+            const {
+                assert!(one_decimal(stringify!($size)));
+                concat!(
+                    "\" font-size=\"",
+                    stringify!($size),
+                    "\" text-anchor=\"",
+                    $anchor,
+                    "\" fill=\"",
+                    colour!($colour),
+                    "\">"
+                )
+            },
+        )
+    };
+}
+
+/// Whether `text` is digits, a point and one digit: a literal that reads as
+/// `{:.1}` writes its value.
+const fn one_decimal(text: &str) -> bool {
+    let b = text.as_bytes();
+    let n = b.len();
+    if n < 3 || b[n - 2] != b'.' || !b[n - 1].is_ascii_digit() {
+        return false;
+    }
+    let mut i = 0;
+    while i < n - 2 {
+        if !b[i].is_ascii_digit() {
+            return false;
+        }
+        i += 1;
+    }
+    true
+}
 
 /// The entity for a character SVG text must not hold as it is (XML 1.0
 /// section 2.4: `<` and `&` in text, quotes in attributes).
@@ -97,44 +192,11 @@ fn d1(v: f64) -> Tenths {
 /// so the page's Content-Security-Policy holds and print keeps the colours.
 /// Each element is written with `say_to!` as literal markup with the syntax
 /// around its numbers (`"<line x1=\""`, `"\" y1=\""`) and the numbers to one
-/// decimal ([`d1`], [`Size`]), straight into the body: a page has hundreds,
-/// and the formatting machinery per number cost more than the drawing.
+/// decimal ([`d1`]), straight into the body: a page has hundreds, and the
+/// formatting machinery per number cost more than the drawing. Strokes and
+/// type come as [`Pen`] and [`Face`], their attributes written out already.
 struct Svg {
     body: String,
-}
-
-/// A pen width or type size. The drawings use a dozen such constants,
-/// about a hundred times a page, so they are written from [`SIZES`] rather
-/// than formatted each time; any other value is formatted as a coordinate.
-struct Size(f64);
-
-/// The sizes the drawings use, as [`Fixed`]`(v, 1)` writes them (a test
-/// holds the table to that).
-const SIZES: [(f64, &str); 12] = [
-    (1.0, "1.0"),
-    (1.2, "1.2"),
-    (1.5, "1.5"),
-    (2.0, "2.0"),
-    (2.5, "2.5"),
-    (3.0, "3.0"),
-    (4.0, "4.0"),
-    (9.0, "9.0"),
-    (10.0, "10.0"),
-    (10.5, "10.5"),
-    (11.0, "11.0"),
-    (12.0, "12.0"),
-];
-
-impl Piece for Size {
-    fn size(&self) -> usize {
-        4
-    }
-    fn push_to(&self, out: &mut String) {
-        match SIZES.iter().find(|(v, _)| *v == self.0) {
-            Some((_, text)) => out.push_str(text),
-            None => push_fixed(out, self.0, 1),
-        }
-    }
 }
 
 impl Svg {
@@ -177,14 +239,7 @@ impl Svg {
         Svg { body }
     }
 
-    fn line(
-        &mut self,
-        (x1, y1): (f64, f64),
-        (x2, y2): (f64, f64),
-        stroke: &str,
-        w: f64,
-        dash: bool,
-    ) {
+    fn line(&mut self, (x1, y1): (f64, f64), (x2, y2): (f64, f64), pen: Pen, dash: bool) {
         say_to!(
             &mut self.body,
             "<line x1=\"",
@@ -195,10 +250,7 @@ impl Svg {
             d1(x2),
             "\" y2=\"",
             d1(y2),
-            "\" stroke-width=\"",
-            Size(w),
-            "\" stroke=\"",
-            stroke,
+            pen.attrs,
             if dash {
                 "\" stroke-dasharray=\"5 4\"/>"
             } else {
@@ -208,16 +260,16 @@ impl Svg {
     }
 
     /// A line with a filled head at its end.
-    fn arrow(&mut self, from: (f64, f64), to: (f64, f64), stroke: &str, w: f64, dash: bool) {
+    fn arrow(&mut self, from: (f64, f64), to: (f64, f64), pen: Pen, dash: bool) {
         let (dx, dy) = (to.0 - from.0, to.1 - from.1);
         let len = dx.hypot(dy);
         if len < 1.0 {
             return;
         }
         let (ux, uy) = (dx / len, dy / len);
-        let head = (3.5 * w + 4.0).min(len * 0.6);
+        let head = (3.5 * pen.width + 4.0).min(len * 0.6);
         let base = (to.0 - ux * head, to.1 - uy * head);
-        self.line(from, base, stroke, w, dash);
+        self.line(from, base, pen, dash);
         let half = head * 0.45;
         let (left, right) = (
             (base.0 - uy * half, base.1 + ux * half),
@@ -238,7 +290,7 @@ impl Svg {
             ",",
             d1(right.1),
             "\" fill=\"",
-            stroke,
+            pen.colour,
             "\"/>",
         );
     }
@@ -292,13 +344,12 @@ impl Svg {
         r: impl Piece + Copy,
         flags: &str,
         to: (f64, f64),
-        stroke: &str,
-        w: f64,
+        pen: Pen,
     ) {
         say_to!(
             &mut self.body,
             "<path stroke-width=\"",
-            Size(w),
+            pen.width_text,
             "\" d=\"M ",
             d1(from.0),
             " ",
@@ -314,28 +365,22 @@ impl Svg {
             " ",
             d1(to.1),
             "\" fill=\"none\" stroke=\"",
-            stroke,
+            pen.colour,
             "\"/>",
         );
     }
 
-    /// Text at a point; `anchor` is start, middle or end. The text's pieces
-    /// are written in place and escaped after, only if they need it (they
-    /// are numbers and the drawings' own words, so almost never).
-    fn text(&mut self, (x, y): (f64, f64), anchor: &str, size: f64, fill: &str, text: impl Piece) {
+    /// Text at a point, set in `face`. The text's pieces are written in
+    /// place and escaped after, only if they need it (they are numbers and
+    /// the drawings' own words, so almost never).
+    fn text(&mut self, (x, y): (f64, f64), face: Face, text: impl Piece) {
         say_to!(
             &mut self.body,
             "<text x=\"",
             d1(x),
             "\" y=\"",
             d1(y),
-            "\" font-size=\"",
-            Size(size),
-            "\" text-anchor=\"",
-            anchor,
-            "\" fill=\"",
-            fill,
-            "\">",
+            face.0,
         );
         let start = self.body.len();
         say_to!(&mut self.body, text);
@@ -446,12 +491,10 @@ pub fn free_body(report: &Report, claim: &Claim) -> Drawing {
 
     // Ground reference and the body, nose (forward, +x) to the right, pitched
     // nose down by the tilt so that thrust leans forward.
-    svg.line((20.0, 285.0), (340.0, 285.0), MUTED, 1.0, false);
+    svg.line((20.0, 285.0), (340.0, 285.0), pen!(muted, 1.0), false);
     svg.text(
         (22.0, 279.0),
-        "start",
-        11.0,
-        MUTED,
+        face!("start", 11.0, muted),
         "level ground; forward is to the right",
     );
     let half = 46.0;
@@ -459,8 +502,7 @@ pub fn free_body(report: &Report, claim: &Claim) -> Drawing {
     svg.line(
         (centre.0 - bx, centre.1 - by),
         (centre.0 + bx, centre.1 + by),
-        INK,
-        9.0,
+        pen!(ink, 9.0),
         false,
     );
     svg.circle(centre, 3.5, PAPER, INK, false);
@@ -473,63 +515,57 @@ pub fn free_body(report: &Report, claim: &Claim) -> Drawing {
     let vertical_tip = (centre.0, centre.1 - f.weight * scale);
     let horizontal_tip = (centre.0 + f.unbalanced * scale, centre.1);
 
-    svg.arrow(centre, weight_tip, INK, 2.5, false);
+    svg.arrow(centre, weight_tip, pen!(ink, 2.5), false);
     svg.text(
         (centre.0 - 8.0, weight_tip.1 - 4.0),
-        "end",
-        12.0,
-        INK,
+        face!("end", 12.0, ink),
         ("weight ", Sig3(f.weight), " N"),
     );
     if f.unbalanced > 0.0 {
-        svg.line(vertical_tip, thrust_tip, MUTED, 1.0, true);
-        svg.line(horizontal_tip, thrust_tip, MUTED, 1.0, true);
-        svg.arrow(centre, vertical_tip, MUTED, 1.5, true);
+        svg.line(vertical_tip, thrust_tip, pen!(muted, 1.0), true);
+        svg.line(horizontal_tip, thrust_tip, pen!(muted, 1.0), true);
+        svg.arrow(centre, vertical_tip, pen!(muted, 1.5), true);
         svg.text(
             (centre.0 - 8.0, vertical_tip.1 + 12.0),
-            "end",
-            11.0,
-            MUTED,
+            face!("end", 11.0, muted),
             ("upward part ", Sig3(f.weight), " N"),
         );
-        svg.arrow(centre, horizontal_tip, FORCE, 2.5, true);
+        svg.arrow(centre, horizontal_tip, pen!(force, 2.5), true);
         svg.text(
             (centre.0 + 46.0, centre.1 + 36.0),
-            "start",
-            12.0,
-            FORCE,
+            face!("start", 12.0, force),
             ("unbalanced ", Sig3(f.unbalanced), " N"),
         );
         // The tilt angle, between the vertical and the thrust.
         let r = 34.0;
         let end = (centre.0 + r * theta.sin(), centre.1 - r * theta.cos());
-        svg.arc((centre.0, centre.1 - r), r, "0 1", end, INK, 1.2);
+        svg.arc((centre.0, centre.1 - r), r, "0 1", end, pen!(ink, 1.2));
         let mid = theta / 2.0;
         svg.text(
             (
                 centre.0 + (r + 6.0) * mid.sin(),
                 centre.1 - (r + 6.0) * mid.cos(),
             ),
-            "start",
-            11.0,
-            INK,
+            face!("start", 11.0, ink),
             ("tilt ", Sig3(f.tilt_deg), " deg"),
         );
     }
-    svg.arrow(centre, thrust_tip, THRUST, 3.0, false);
+    svg.arrow(centre, thrust_tip, pen!(thrust, 3.0), false);
     svg.text(
         (thrust_tip.0 + 6.0, (thrust_tip.1 + 4.0).max(14.0)),
-        "start",
-        12.0,
-        THRUST,
+        face!("start", 12.0, thrust),
         ("thrust ", Sig3(f.thrust), " N"),
     );
 
     // Scale bar, bottom right.
     let step = nice_step(f.weight * 1.5);
     let bar = step * scale;
-    svg.line((330.0 - bar, 265.0), (330.0, 265.0), INK, 2.0, false);
-    svg.text((330.0, 258.0), "end", 11.0, INK, ("", Sig3(step), " N"));
+    svg.line((330.0 - bar, 265.0), (330.0, 265.0), pen!(ink, 2.0), false);
+    svg.text(
+        (330.0, 258.0),
+        face!("end", 11.0, ink),
+        ("", Sig3(step), " N"),
+    );
 
     let caption = if f.unbalanced > 0.0 {
         say!(
@@ -571,21 +607,21 @@ fn axis(svg: &mut Svg, max: f64, y: f64, unit: &str) {
     let mut v = 0.0;
     while v <= max * 1.0001 {
         let x = BAR_X + v / max * BAR_W;
-        svg.line((x, y), (x, y + 4.0), MUTED, 1.0, false);
-        svg.text((x, y + 15.0), "middle", 10.0, MUTED, Sig3(v));
+        svg.line((x, y), (x, y + 4.0), pen!(muted, 1.0), false);
+        svg.text((x, y + 15.0), face!("middle", 10.0, muted), Sig3(v));
         v += step;
     }
-    svg.line((BAR_X, y), (BAR_X + BAR_W, y), MUTED, 1.0, false);
-    svg.text((BAR_X + BAR_W, y + 28.0), "end", 10.0, MUTED, unit);
+    svg.line((BAR_X, y), (BAR_X + BAR_W, y), pen!(muted, 1.0), false);
+    svg.text((BAR_X + BAR_W, y + 28.0), face!("end", 10.0, muted), unit);
 }
 
 /// A value label at the end of a bar: beside it when there is room, else
 /// inside its end.
 fn bar_label(svg: &mut Svg, end: f64, y: f64, text: &str) {
     if end + 6.0 + 6.0 * text.len() as f64 <= BAR_X + BAR_W + 20.0 {
-        svg.text((end + 5.0, y), "start", 10.5, INK, text);
+        svg.text((end + 5.0, y), face!("start", 10.5, ink), text);
     } else {
-        svg.text((end - 5.0, y), "end", 10.5, INK, text);
+        svg.text((end - 5.0, y), face!("end", 10.5, ink), text);
     }
 }
 
@@ -619,28 +655,33 @@ pub fn thrust_bar(report: &Report) -> Drawing {
     let mut svg = Svg::new(ID, TITLE, 390.0, bottom + 62.0);
     for (i, (tier, available)) in rows.iter().enumerate() {
         let y = top + i as f64 * row_h;
-        svg.text((BAR_X - 8.0, y + 15.0), "end", 12.0, INK, tier.label());
+        svg.text(
+            (BAR_X - 8.0, y + 15.0),
+            face!("end", 12.0, ink),
+            tier.label(),
+        );
         let end = x_of(*available);
         svg.rect(BAR_X, y + 2.0, end - BAR_X, 18.0, FILL_A, THRUST);
         let hover_x = x_of(available * hover_share);
-        svg.line((hover_x, y - 1.0), (hover_x, y + 23.0), INK, 2.5, false);
+        svg.line(
+            (hover_x, y - 1.0),
+            (hover_x, y + 23.0),
+            pen!(ink, 2.5),
+            false,
+        );
         bar_label(&mut svg, end, y + 15.0, &say!(Sig3(*available), " N"));
     }
     let wx = x_of(weight);
-    svg.line((wx, top - 8.0), (wx, bottom), FORCE, 2.0, true);
+    svg.line((wx, top - 8.0), (wx, bottom), pen!(force, 2.0), true);
     svg.text(
         (wx.clamp(BAR_X + 40.0, BAR_X + BAR_W - 40.0), top - 12.0),
-        "middle",
-        11.0,
-        FORCE,
+        face!("middle", 11.0, force),
         ("weight ", Sig3(weight), " N"),
     );
     axis(&mut svg, max, bottom, "newtons");
     svg.text(
         (10.0, bottom + 52.0),
-        "start",
-        10.5,
-        INK,
+        face!("start", 10.5, ink),
         (
             "bar: all rotors at full power; solid mark: ",
             Fixed(hover_share * 100.0, 0),
@@ -697,7 +738,11 @@ pub fn energy_bar(report: &Report) -> Drawing {
     let mut svg = Svg::new(ID, TITLE, 390.0, bottom + 62.0);
     for (i, (tier, stored, needed)) in rows.iter().enumerate() {
         let y = top + i as f64 * row_h;
-        svg.text((BAR_X - 8.0, y + 20.0), "end", 12.0, INK, tier.label());
+        svg.text(
+            (BAR_X - 8.0, y + 20.0),
+            face!("end", 12.0, ink),
+            tier.label(),
+        );
         let end = x_of(*stored);
         svg.rect(BAR_X, y, end - BAR_X, 14.0, FILL_A, THRUST);
         bar_label(
@@ -720,9 +765,7 @@ pub fn energy_bar(report: &Report) -> Drawing {
     axis(&mut svg, max, bottom - 4.0, "watt-hours");
     svg.text(
         (10.0, bottom + 48.0),
-        "start",
-        10.5,
-        INK,
+        face!("start", 10.5, ink),
         "upper bar: usable energy stored; lower bar: energy the claim needs",
     );
     let caption = match claimed_min {
@@ -874,18 +917,17 @@ fn draw_plan(id: &str, title: &str, plan: &layout::Plan, lost: Option<usize>) ->
     svg.arrow(
         (centre.0, centre.1 - 14.0),
         (centre.0, 14.0),
-        MUTED,
-        1.0,
+        pen!(muted, 1.0),
         true,
     );
-    svg.text((centre.0 + 6.0, 16.0), "start", 11.0, MUTED, "front");
+    svg.text((centre.0 + 6.0, 16.0), face!("start", 11.0, muted), "front");
     let coaxial = plan.rotors.len() > 1
         && plan
             .rotors
             .iter()
             .all(|r| r.x.abs() < 1e-9 && r.y.abs() < 1e-9);
     for r in &plan.rotors {
-        svg.line(centre, to_page(r.x, r.y), INK, 4.0, false);
+        svg.line(centre, to_page(r.x, r.y), pen!(ink, 4.0), false);
     }
     svg.rect(centre.0 - 9.0, centre.1 - 9.0, 18.0, 18.0, INK, INK);
     for (i, r) in plan.rotors.iter().enumerate() {
@@ -896,8 +938,18 @@ fn draw_plan(id: &str, title: &str, plan: &layout::Plan, lost: Option<usize>) ->
         if stopped {
             svg.circle(c, rad, PAPER, FORCE, true);
             let d = rad * 0.6;
-            svg.line((c.0 - d, c.1 - d), (c.0 + d, c.1 + d), FORCE, 2.5, false);
-            svg.line((c.0 - d, c.1 + d), (c.0 + d, c.1 - d), FORCE, 2.5, false);
+            svg.line(
+                (c.0 - d, c.1 - d),
+                (c.0 + d, c.1 + d),
+                pen!(force, 2.5),
+                false,
+            );
+            svg.line(
+                (c.0 - d, c.1 + d),
+                (c.0 + d, c.1 - d),
+                pen!(force, 2.5),
+                false,
+            );
         } else {
             svg.circle(c, rad, DISC, THRUST, plan.diameter.is_none());
             spin_arrow(&mut svg, c, rad * 0.72, r.spin);
@@ -915,7 +967,7 @@ fn draw_plan(id: &str, title: &str, plan: &layout::Plan, lost: Option<usize>) ->
             say!(i + 1, " ", spin)
         };
         if r.tilts && !coaxial {
-            svg.text((c.0, c.1 + rad + 12.0), "middle", 10.5, INK, "tilts");
+            svg.text((c.0, c.1 + rad + 12.0), face!("middle", 10.5, ink), "tilts");
         }
         let at = if coaxial {
             (centre.0 + rad + 4.0, c.1 - rad + 12.0 + 14.0 * i as f64)
@@ -924,14 +976,19 @@ fn draw_plan(id: &str, title: &str, plan: &layout::Plan, lost: Option<usize>) ->
         } else {
             (c.0, c.1 + 4.0)
         };
-        let anchor = if coaxial { "start" } else { "middle" };
-        svg.text(at, anchor, 11.0, if stopped { FORCE } else { INK }, &label);
+        let face = match (coaxial, stopped) {
+            (true, true) => face!("start", 11.0, force),
+            (true, false) => face!("start", 11.0, ink),
+            (false, true) => face!("middle", 11.0, force),
+            (false, false) => face!("middle", 11.0, ink),
+        };
+        svg.text(at, face, &label);
     }
     let step_m = nice_step(extent * 2.0);
     let bar = step_m * scale;
-    svg.line((300.0 - bar, 305.0), (300.0, 305.0), INK, 2.0, false);
+    svg.line((300.0 - bar, 305.0), (300.0, 305.0), pen!(ink, 2.0), false);
     let step_label = say!(Sig3(step_m * 1000.0), " mm");
-    svg.text((300.0, 298.0), "end", 11.0, INK, &step_label);
+    svg.text((300.0, 298.0), face!("end", 11.0, ink), &step_label);
     (svg, step_label)
 }
 
@@ -951,7 +1008,7 @@ fn spin_arrow(svg: &mut Svg, (cx, cy): (f64, f64), r: f64, spin: Spin) {
     };
     let (s, e) = (point(a0), point(a1));
     let flags = if sweep_cw { "1 1" } else { "1 0" };
-    svg.arc(s, d1(r), flags, e, THRUST, 1.5);
+    svg.arc(s, d1(r), flags, e, pen!(thrust, 1.5));
     // Head tangent to the arc at its end, pointing along the turn.
     let t = a1.to_radians();
     let dir = if sweep_cw { 1.0 } else { -1.0 };
@@ -959,8 +1016,7 @@ fn spin_arrow(svg: &mut Svg, (cx, cy): (f64, f64), r: f64, spin: Spin) {
     svg.arrow(
         (e.0 - tangent.0 * 9.0, e.1 - tangent.1 * 9.0),
         (e.0 + tangent.0 * 4.0, e.1 + tangent.1 * 4.0),
-        THRUST,
-        2.0,
+        pen!(thrust, 2.0),
         false,
     );
 }
@@ -970,17 +1026,44 @@ mod tests {
     use super::*;
 
     #[test]
-    fn the_size_table_writes_what_fixed_writes() {
-        for (v, text) in SIZES {
-            assert_eq!(Fixed(v, 1).to_string(), text);
-            let mut out = String::new();
-            Size(v).push_to(&mut out);
-            assert_eq!(out, text);
-        }
-        let mut out = String::new();
-        Size(7.25).push_to(&mut out);
-        assert_eq!(out, Fixed(7.25, 1).to_string());
+    fn pens_and_faces_spell_out_what_their_numbers_and_colours_write() {
+        let pen = pen!(muted, 2.5);
+        let expected = say!(
+            "\" stroke-width=\"",
+            Fixed(2.5, 1),
+            "\" stroke=\"",
+            "#6b7080"
+        );
+        assert_eq!(pen.attrs, expected);
+        assert_eq!(pen.width_text, Fixed(pen.width, 1).to_string());
+        assert_eq!(pen.colour, "#6b7080");
+        let face = face!("end", 10.5, ink);
+        let expected = say!(
+            "\" font-size=\"",
+            Fixed(10.5, 1),
+            "\" text-anchor=\"end\" fill=\"",
+            INK,
+            "\">"
+        );
+        assert_eq!(face.0, expected);
     }
+
+    #[test]
+    fn a_literal_with_one_decimal_is_what_the_formatter_writes_for_its_value() {
+        // The check pen! and face! make when compiled: "d.d" as written is
+        // `{:.1}` of the value it reads as (from 0.0 to 99.9), and anything
+        // else is refused.
+        for n in 0..1000 {
+            let text = format!("{}.{}", n / 10, n % 10);
+            assert!(one_decimal(&text), "{text}");
+            let value: f64 = text.parse().unwrap();
+            assert_eq!(Fixed(value, 1).to_string(), text);
+        }
+        for text in ["", "1", "1.", ".5", "2.50", "1e1", "-1.0", "1.5 ", "10,5"] {
+            assert!(!one_decimal(text), "{text:?}");
+        }
+    }
+
     use crate::claim::{self, Format};
     use crate::report::{Figure, Finding, Verdict};
 
