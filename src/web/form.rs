@@ -420,22 +420,37 @@ fn insert(root: &mut toml::Table, path: &str, value: toml::Value) {
 /// the WHATWG URL standard parses them (section 5.1): split on `&`, skip
 /// empty pieces, split each at its first `=`, `+` is a space, `%XX` a byte
 /// (a `%` without two hex digits stays), then UTF-8 with U+FFFD for what is
-/// not. One pass per part: the general decoder made three, with a String
-/// for each, and it was a twentieth of a verdict page under load.
+/// not. One pass over the body: the general decoder made three per part,
+/// with a String for each, and it was a twentieth of a verdict page under
+/// load.
 pub fn urlencoded_pairs(body: &[u8]) -> Vec<(String, String)> {
-    body.split(|&b| b == b'&')
-        .filter(|piece| !piece.is_empty())
-        .map(|piece| {
-            let (name, value) = match piece.iter().position(|&b| b == b'=') {
-                Some(at) => (&piece[..at], &piece[at + 1..]),
-                None => (piece, &piece[..0]),
-            };
-            (percent_decoded(name), percent_decoded(value))
-        })
-        .collect()
+    // Split and decoded in the same pass: a name ends at the first `=` or
+    // `&`, its value at the next `&` (an escaped `%26` is text, not an end).
+    let mut pairs = Vec::new();
+    let mut at = 0;
+    while let Some(&first) = body.get(at) {
+        if first == b'&' {
+            // An empty piece.
+            at += 1;
+            continue;
+        }
+        let (name, end) = decoded_until(&body[at..], b'=');
+        at += end;
+        let value = if body.get(at) == Some(&b'=') {
+            let (value, end) = decoded_until(&body[at + 1..], b'&');
+            at += 1 + end;
+            value
+        } else {
+            String::new()
+        };
+        pairs.push((name, value));
+    }
+    pairs
 }
 
-fn percent_decoded(part: &[u8]) -> String {
+/// The text of `part` up to its first `&` or `until` (which may be `&`
+/// too), decoded, and where that byte is (the length if there is none).
+fn decoded_until(part: &[u8], until: u8) -> (String, usize) {
     // Into room for all of them: decoding never lengthens a part (`+` is one
     // byte for one, `%XX` one for three), so the byte written at `len` is
     // never past the one read at `i`. Between escapes a sheet's runs are a
@@ -446,6 +461,9 @@ fn percent_decoded(part: &[u8]) -> String {
     let mut i = 0;
     while i < part.len() {
         let mut byte = part[i];
+        if byte == b'&' || byte == until {
+            break;
+        }
         i += 1;
         if byte == b'+' {
             byte = b' ';
@@ -460,10 +478,11 @@ fn percent_decoded(part: &[u8]) -> String {
         len += 1;
     }
     out.truncate(len);
-    match String::from_utf8(out) {
+    let text = match String::from_utf8(out) {
         Ok(text) => text,
         Err(e) => String::from_utf8_lossy(e.as_bytes()).into_owned(),
-    }
+    };
+    (text, i)
 }
 
 /// The value of each byte as a hex digit, or 0xf0 (16 or more, whichever
@@ -514,6 +533,13 @@ mod tests {
             "caf\u{e9}=%c3%a9",
             "%%41",
             "+%2B+",
+            "=",
+            "==",
+            "a&=b",
+            "%=41",
+            "a%&b",
+            "%2=&",
+            "a=%2&b=%26&%3D=%3d",
         ]
         .iter()
         .map(|b| b.as_bytes().to_vec())
