@@ -1,14 +1,12 @@
-//! Finding the next byte to escape in a text, sixteen or thirty-two bytes
-//! at a time.
+//! Finding the next byte to escape in a text, sixteen bytes at a time.
 //!
 //! The report is mostly text, and both of its renderings escape it: JSON
 //! (RFC 8259 section 7) and HTML. Looking at each byte on its own, as
 //! serde_json and askama do, was the larger part of writing a report and of
 //! rendering a verdict page (callgrind, `render-json-compact` and
 //! `render-page`). On x86-64 the run before the next such byte is found
-//! with SSE2 compares, sixteen bytes to an instruction, or with AVX2,
-//! thirty-two, where the CPU has it and the text is that long; elsewhere
-//! byte by byte. The same JSON class ends a string in the plain JSON sheet reader
+//! with SSE2 compares, sixteen bytes to an instruction; elsewhere byte by
+//! byte. The same JSON class ends a string in the plain JSON sheet reader
 //! (`claim::plain_json`): a string holds none of those bytes as they are.
 
 use std::fmt;
@@ -55,14 +53,6 @@ impl Escapes {
     pub fn clean_run(self, bytes: &[u8]) -> usize {
         #[cfg(target_arch = "x86_64")]
         {
-            // A sentence of a report is a few hundred bytes: thirty-two at a
-            // time where the CPU has AVX2 (asked only of a text that long,
-            // and answered from a cached flag after the first time).
-            if bytes.len() >= 32 && std::arch::is_x86_feature_detected!("avx2") {
-                // SAFETY: AVX2 is there, as just detected, and the text is
-                // at least thirty-two bytes long.
-                return unsafe { self.clean_run_avx2(bytes) };
-            }
             // SAFETY: SSE2 is part of the x86-64 baseline; every x86-64 CPU has it.
             unsafe { self.clean_run_sse2(bytes) }
         }
@@ -126,62 +116,6 @@ impl Escapes {
         }
     }
 
-    /// As [`Self::clean_run_sse2`], thirty-two bytes at a time, for a text
-    /// of at least thirty-two bytes.
-    #[cfg(target_arch = "x86_64")]
-    #[target_feature(enable = "avx2")]
-    unsafe fn clean_run_avx2(self, bytes: &[u8]) -> usize {
-        use std::arch::x86_64::{_mm256_loadu_si256, _mm256_movemask_epi8};
-        debug_assert!(bytes.len() >= 32);
-        let mut i = 0;
-        while i + 32 <= bytes.len() {
-            // SAFETY: i + 32 <= len, so all thirty-two bytes read lie in the
-            // slice; the unaligned load takes any address.
-            let v = unsafe { _mm256_loadu_si256(bytes.as_ptr().add(i).cast()) };
-            let mask = _mm256_movemask_epi8(self.marks_avx2(v)) as u32;
-            if mask != 0 {
-                return i + mask.trailing_zeros() as usize;
-            }
-            i += 32;
-        }
-        let left = bytes.len() - i;
-        if left == 0 {
-            return i;
-        }
-        // The last few bytes: the thirty-two that end the text, of which
-        // the first 32 - left were clean above, so their lanes are dropped.
-        // SAFETY: len >= 32 (the caller's promise), so the thirty-two bytes
-        // read end at the end of the slice.
-        let v = unsafe { _mm256_loadu_si256(bytes.as_ptr().add(bytes.len() - 32).cast()) };
-        let mask = (_mm256_movemask_epi8(self.marks_avx2(v)) as u32) >> (32 - left);
-        if mask == 0 {
-            bytes.len()
-        } else {
-            i + mask.trailing_zeros() as usize
-        }
-    }
-
-    /// As [`Self::marks`], in thirty-two lanes.
-    #[cfg(target_arch = "x86_64")]
-    #[target_feature(enable = "avx2")]
-    fn marks_avx2(self, v: std::arch::x86_64::__m256i) -> std::arch::x86_64::__m256i {
-        use std::arch::x86_64::{
-            _mm256_cmpeq_epi8, _mm256_max_epu8, _mm256_or_si256, _mm256_set1_epi8,
-        };
-        let eq = |b: u8| _mm256_cmpeq_epi8(v, _mm256_set1_epi8(b as i8));
-        match self {
-            Escapes::Json => {
-                let low = _mm256_set1_epi8(0x1f);
-                let control = _mm256_cmpeq_epi8(_mm256_max_epu8(v, low), low);
-                _mm256_or_si256(control, _mm256_or_si256(eq(b'"'), eq(b'\\')))
-            }
-            Escapes::Html => _mm256_or_si256(
-                _mm256_or_si256(eq(b'"'), eq(b'&')),
-                _mm256_or_si256(eq(b'\''), _mm256_or_si256(eq(b'<'), eq(b'>'))),
-            ),
-        }
-    }
-
     /// 0xff in each lane holding a byte to escape.
     #[cfg(target_arch = "x86_64")]
     #[target_feature(enable = "sse2")]
@@ -229,14 +163,11 @@ mod tests {
 
     #[test]
     fn the_run_ends_at_each_byte_to_escape_at_every_offset() {
-        // Every length up to three thirty-two-byte blocks (the short texts,
-        // the whole blocks and the overlapping tail of both widths), every
-        // offset within it; where the CPU has AVX2, its scan on its own too.
-        #[cfg(target_arch = "x86_64")]
-        let avx2 = std::arch::is_x86_feature_detected!("avx2");
+        // Every length up to three sixteen-byte blocks (the short texts, the
+        // whole blocks and the overlapping tail), every offset within it.
         for class in [Escapes::Json, Escapes::Html] {
             for b in 0..=255u8 {
-                for len in 1..=96 {
+                for len in 1..=48 {
                     for at in 0..len {
                         let mut text = vec![b'a'; len];
                         text[at] = b;
@@ -247,14 +178,6 @@ mod tests {
                             "{class:?} {b:#04x} at {at} of {len}"
                         );
                         assert_eq!(class.clean_run_bytes(&text), expected);
-                        // SAFETY: SSE2 is part of the x86-64 baseline.
-                        #[cfg(target_arch = "x86_64")]
-                        assert_eq!(unsafe { class.clean_run_sse2(&text) }, expected);
-                        #[cfg(target_arch = "x86_64")]
-                        if avx2 && len >= 32 {
-                            // SAFETY: AVX2 was detected; the text is long enough.
-                            assert_eq!(unsafe { class.clean_run_avx2(&text) }, expected);
-                        }
                     }
                 }
             }
