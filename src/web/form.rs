@@ -424,8 +424,14 @@ fn insert(root: &mut toml::Table, path: &str, value: toml::Value) {
 /// with a String for each, and it was a twentieth of a verdict page under
 /// load.
 pub fn urlencoded_pairs(body: &[u8]) -> Vec<(String, String)> {
-    // Split and decoded in the same pass: a name ends at the first `=` or
-    // `&`, its value at the next `&` (an escaped `%26` is text, not an end).
+    // Split and decoded in the same pass, into one buffer the size of the
+    // body: decoding never lengthens a text (`+` is one byte for one, `%XX`
+    // one for three), so the byte written at `len` is never past the one
+    // read at `at`. A name ends at the first `=` or `&`, its value at the
+    // next `&` (an escaped `%26` is text, not an end). Each is then copied
+    // out at its own length, so a body of many fields costs its own size.
+    let mut decoded = vec![0; body.len()];
+    let mut len = 0;
     let mut pairs = Vec::new();
     let mut at = 0;
     while let Some(&first) = body.get(at) {
@@ -434,12 +440,13 @@ pub fn urlencoded_pairs(body: &[u8]) -> Vec<(String, String)> {
             at += 1;
             continue;
         }
-        let (name, end) = decoded_until(&body[at..], b'=');
-        at += end;
+        let start = len;
+        at = decode_until(body, at, b'=', &mut decoded, &mut len);
+        let name = text_of(&decoded[start..len]);
         let value = if body.get(at) == Some(&b'=') {
-            let (value, end) = decoded_until(&body[at + 1..], b'&');
-            at += 1 + end;
-            value
+            let start = len;
+            at = decode_until(body, at + 1, b'&', &mut decoded, &mut len);
+            text_of(&decoded[start..len])
         } else {
             String::new()
         };
@@ -448,41 +455,36 @@ pub fn urlencoded_pairs(body: &[u8]) -> Vec<(String, String)> {
     pairs
 }
 
-/// The text of `part` up to its first `&` or `until` (which may be `&`
-/// too), decoded, and where that byte is (the length if there is none).
-fn decoded_until(part: &[u8], until: u8) -> (String, usize) {
-    // Into room for all of them: decoding never lengthens a part (`+` is one
-    // byte for one, `%XX` one for three), so the byte written at `len` is
-    // never past the one read at `i`. Between escapes a sheet's runs are a
-    // word long, too short to copy whole, so it goes byte by byte, with the
-    // hex digits read from a table rather than tested by range.
-    let mut out = vec![0; part.len()];
-    let mut len = 0;
-    let mut i = 0;
-    while i < part.len() {
-        let mut byte = part[i];
+/// Decodes `body` from `at` up to its next `&` or `until` (which may be `&`
+/// too) into `out` from `len` on, and returns where that byte is (the end
+/// of the body if there is none). Byte by byte: between escapes a sheet's
+/// runs are a word long, too short to copy whole; the hex digits are read
+/// from a table rather than tested by range.
+fn decode_until(body: &[u8], mut at: usize, until: u8, out: &mut [u8], len: &mut usize) -> usize {
+    while at < body.len() {
+        let mut byte = body[at];
         if byte == b'&' || byte == until {
             break;
         }
-        i += 1;
+        at += 1;
         if byte == b'+' {
             byte = b' ';
-        } else if byte == b'%' && i + 1 < part.len() {
-            let (high, low) = (HEX[usize::from(part[i])], HEX[usize::from(part[i + 1])]);
+        } else if byte == b'%' && at + 1 < body.len() {
+            let (high, low) = (HEX[usize::from(body[at])], HEX[usize::from(body[at + 1])]);
             if high | low < 16 {
                 byte = high << 4 | low;
-                i += 2;
+                at += 2;
             }
         }
-        out[len] = byte;
-        len += 1;
+        out[*len] = byte;
+        *len += 1;
     }
-    out.truncate(len);
-    let text = match String::from_utf8(out) {
-        Ok(text) => text,
-        Err(e) => String::from_utf8_lossy(e.as_bytes()).into_owned(),
-    };
-    (text, i)
+    at
+}
+
+/// Decoded bytes as text, with U+FFFD for what is not UTF-8.
+fn text_of(bytes: &[u8]) -> String {
+    String::from_utf8_lossy(bytes).into_owned()
 }
 
 /// The value of each byte as a hex digit, or 0xf0 (16 or more, whichever
@@ -546,9 +548,12 @@ mod tests {
         .collect();
         let alphabet: &[u8] = b"%+=&aF9g\xc3\xa9\xff ";
         let mut x: u64 = 0x2545_F491_4F6C_DD1D;
-        for _ in 0..3000 {
+        // Short bodies, and a few long ones of many fields, whose names and
+        // values share the decoding buffer one after the other.
+        for n in 0..3020 {
             let mut body = Vec::new();
-            for _ in 0..(x % 24) {
+            let size = if n < 3000 { x % 24 } else { 2000 + x % 2000 };
+            for _ in 0..size {
                 x ^= x << 13;
                 x ^= x >> 7;
                 x ^= x << 17;
