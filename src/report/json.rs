@@ -9,12 +9,12 @@
 //! ([`crate::scan`]) and copied whole; the punctuation and member names,
 //! whose places the contract fixes, are copied as whole constant pieces
 //! (`,"label":"`), and our own words (ids, keys, units, fixed labels,
-//! cautions) without a look. Numbers are still written by serde_json, so
-//! they keep its shortest round-trip form.
+//! cautions) without a look; a string's quotes go with the pieces beside
+//! it. Numbers are written by zmij, the writer serde_json's formatter calls,
+//! so they keep its shortest round-trip form.
 
 use std::borrow::Cow;
-
-use serde::Serialize;
+use std::mem::MaybeUninit;
 
 use super::{Figure, Finding, Report};
 use crate::scan::Escapes;
@@ -27,18 +27,20 @@ pub fn compact(report: &Report) -> Vec<u8> {
 }
 
 impl Out {
+    // The quotes around a string go with the constant pieces beside it
+    // (`","headline":"`), so that a string costs its own bytes and no more.
     fn report(&mut self, report: &Report) {
         self.put(b"{\"schema\":\"");
         self.put(ours(report.schema));
-        self.put(b"\",\"title\":");
+        self.put(b"\",\"title\":\"");
         self.text(&report.title);
-        self.put(b",\"verdict\":\"");
+        self.put(b"\",\"verdict\":\"");
         self.put(ours(report.verdict.id()));
         self.put(b"\",\"findings\":");
         self.list(&report.findings, Out::finding);
         // The cautions are ours (report::CAUTIONS), held escape-free by a test.
         self.put(b",\"cautions\":");
-        self.list(report.cautions, |out, c| out.plain(c));
+        self.strings(report.cautions, |out, c| out.put(ours(c)));
         self.put(b",\"engine\":\"");
         self.put(ours(report.engine));
         self.put(b"\"}");
@@ -49,34 +51,33 @@ impl Out {
         self.put(ours(f.rule));
         self.put(b"\",\"verdict\":\"");
         self.put(ours(f.verdict.id()));
-        self.put(b"\",\"headline\":");
+        self.put(b"\",\"headline\":\"");
         self.text(&f.headline);
-        self.put(b",\"figures\":");
+        self.put(b"\",\"figures\":");
         self.list(&f.figures, Out::figure);
-        self.put(b",\"would_take\":");
+        self.put(b",\"would_take\":\"");
         self.text(&f.would_take);
-        self.put(b",\"assumptions\":");
-        self.list(&f.assumptions, |out, a| out.text(a));
+        self.put(b"\",\"assumptions\":");
+        self.strings(&f.assumptions, |out, a| out.text(a));
         self.put(b",\"sources\":");
-        self.list(f.sources, |out, id| out.plain(id));
+        self.strings(f.sources, |out, id| out.put(ours(id)));
         self.byte(b'}');
     }
 
     fn figure(&mut self, g: &Figure) {
         self.put(b"{\"key\":\"");
         self.put(ours(g.key));
-        self.put(b"\",\"label\":");
+        self.put(b"\",\"label\":\"");
         match &g.label {
             // A borrowed label is 'static: one of the rules' fixed words.
-            Cow::Borrowed(label) => self.plain(label),
+            Cow::Borrowed(label) => self.put(ours(label)),
             Cow::Owned(label) => self.text(label),
         }
         if let Some(t) = g.tier {
-            self.put(b",\"tier\":\"");
+            self.put(b"\",\"tier\":\"");
             self.put(ours(t.id()));
-            self.byte(b'"');
         }
-        self.put(b",\"value\":");
+        self.put(b"\",\"value\":");
         self.number(g.value);
         self.put(b",\"unit\":\"");
         self.put(ours(g.unit));
@@ -95,30 +96,39 @@ impl Out {
         self.byte(b']');
     }
 
+    /// A JSON array of strings, `["a","b"]`, each string's inside written by
+    /// `each` and the quotes with the punctuation between them.
+    fn strings<T>(&mut self, items: &[T], mut each: impl FnMut(&mut Out, &T)) {
+        let Some((first, rest)) = items.split_first() else {
+            self.put(b"[]");
+            return;
+        };
+        self.put(b"[\"");
+        each(self, first);
+        for item in rest {
+            self.put(b"\",\"");
+            each(self, item);
+        }
+        self.put(b"\"]");
+    }
+
+    /// A number as serde_json writes an f64: a finite one in the shortest
+    /// form that reads back the same, by the same writer (zmij, whose
+    /// `format_finite` serde_json's formatter calls), a non-finite one as null.
     fn number(&mut self, v: f64) {
-        // serde_json writes a finite f64 in its shortest round-trip form (at
-        // most 24 bytes) and a non-finite one as null.
-        let mut digits = [0u8; 32];
-        let mut rest = &mut digits[..];
-        let _ = v.serialize(&mut serde_json::Serializer::new(&mut rest));
-        let n = 32 - rest.len();
-        self.put(&digits[..n]);
+        if v.is_finite() {
+            self.put(zmij::Buffer::new().format_finite(v).as_bytes());
+        } else {
+            self.put(b"null");
+        }
     }
 
-    /// A string of ours, copied without a look.
-    #[inline(always)]
-    fn plain(&mut self, s: &'static str) {
-        self.byte(b'"');
-        self.put(ours(s));
-        self.byte(b'"');
-    }
-
-    /// A JSON string (RFC 8259 section 7) with serde_json's escapes: the
-    /// short forms for \b \t \n \f \r, `\u00XX` for other control bytes.
-    /// The runs between them are found by [`Escapes::clean_run`] and copied whole.
+    /// The inside of a JSON string (RFC 8259 section 7), its quotes left to
+    /// the caller, with serde_json's escapes: the short forms for \b \t \n
+    /// \f \r, `\u00XX` for other control bytes. The runs between them are
+    /// found by [`Escapes::clean_run`] and copied whole.
     fn text(&mut self, s: &str) {
         let mut rest = s.as_bytes();
-        self.byte(b'"');
         loop {
             let run = Escapes::Json.clean_run(rest);
             self.put(&rest[..run]);
@@ -133,7 +143,6 @@ impl Out {
             }
             rest = &rest[run + 1..];
         }
-        self.byte(b'"');
     }
 }
 
@@ -147,11 +156,21 @@ fn ours(s: &'static str) -> &'static [u8] {
     s.as_bytes()
 }
 
-/// The text being written: a zeroed buffer and a cursor into it. A report is
-/// some 700 pieces, most under sixteen bytes (punctuation, names, ids,
-/// numbers); into a `Vec` each would be a capacity check and a call to
-/// memcpy. Here a short piece is two overlapping moves into room the buffer
-/// already has, and only a long one calls memcpy; all of it is safe indexing.
+/// The text being written: a buffer's capacity and a cursor into it. A
+/// report is some 700 pieces, most under sixteen bytes (punctuation, names,
+/// ids, numbers); pushed onto a `Vec` each would be a capacity check and a
+/// call to memcpy. Here a short piece is two overlapping moves into room the
+/// buffer already has, and only a long one calls memcpy.
+///
+/// The room is the `Vec`'s spare capacity, written as `MaybeUninit` bytes,
+/// rather than a zeroed buffer: zeroing 16 KiB that the report then
+/// overwrites took about a microsecond of each API request (perf under
+/// `tests/load.sh`; callgrind, which counts each step of a string store,
+/// put it at 16k of the route's 163k instructions). The invariant that makes
+/// the two `set_len` below sound: every piece writes each of the bytes it
+/// moves the cursor past, so the first `len` bytes of the capacity are always
+/// written. The `Vec`'s own length stays 0 until then, so that its spare
+/// capacity is the whole buffer.
 struct Out {
     buf: Vec<u8>,
     len: usize,
@@ -160,66 +179,78 @@ struct Out {
 impl Out {
     fn with_room(room: usize) -> Out {
         Out {
-            buf: vec![0; room],
+            buf: Vec::with_capacity(room),
             len: 0,
         }
     }
 
+    fn capacity(&self) -> usize {
+        self.buf.capacity()
+    }
+
     /// The next `n` bytes of the buffer, which is grown if it lacks them;
-    /// the cursor moves past them.
+    /// the cursor moves past them, and the caller writes every one.
     #[inline(always)]
-    fn room(&mut self, n: usize) -> &mut [u8] {
-        if self.buf.len() - self.len < n {
+    fn room(&mut self, n: usize) -> &mut [MaybeUninit<u8>] {
+        if self.capacity() - self.len < n {
             self.grow(n);
         }
         let at = self.len;
         self.len += n;
-        &mut self.buf[at..at + n]
+        &mut self.buf.spare_capacity_mut()[at..at + n]
     }
 
     #[cold]
     #[inline(never)]
     fn grow(&mut self, n: usize) {
-        let want = (self.len + n + SHORT).max(2 * self.buf.len());
-        self.buf.resize(want, 0);
+        let want = (self.len + n + SHORT).max(2 * self.capacity());
+        // SAFETY: the first `len` bytes are written (see `Out`), so the `Vec`
+        // may own them while it moves them to the larger buffer.
+        unsafe { self.buf.set_len(self.len) };
+        self.buf.reserve_exact(want - self.len);
+        // Length 0 again, so that the spare capacity is the whole buffer;
+        // the bytes written stay where they are.
+        self.buf.clear();
     }
 
     #[inline(always)]
     fn byte(&mut self, b: u8) {
-        self.room(1)[0] = b;
+        self.room(1)[0].write(b);
     }
 
     /// Copies `s`; up to [`SHORT`] bytes as two moves of a power of two that
     /// overlap in the middle (where the buffer has `SHORT` bytes of room past
-    /// the cursor for them), longer ones with memcpy.
+    /// the cursor for them), longer ones with memcpy. Either way every byte
+    /// of `s` is written before the cursor passes it.
     #[inline(always)]
     fn put(&mut self, s: &[u8]) {
         let n = s.len();
-        if n > SHORT || self.buf.len() - self.len < SHORT {
-            self.room(n).copy_from_slice(s);
+        if n > SHORT || self.capacity() - self.len < SHORT {
+            self.room(n).write_copy_of_slice(s);
             return;
         }
         let at = self.len;
-        let dst = &mut self.buf[at..at + SHORT];
+        let dst = &mut self.buf.spare_capacity_mut()[at..at + SHORT];
         if n >= 16 {
-            dst[..16].copy_from_slice(&s[..16]);
-            dst[n - 16..n].copy_from_slice(&s[n - 16..]);
+            dst[..16].write_copy_of_slice(&s[..16]);
+            dst[n - 16..n].write_copy_of_slice(&s[n - 16..]);
         } else if n >= 8 {
-            dst[..8].copy_from_slice(&s[..8]);
-            dst[n - 8..n].copy_from_slice(&s[n - 8..]);
+            dst[..8].write_copy_of_slice(&s[..8]);
+            dst[n - 8..n].write_copy_of_slice(&s[n - 8..]);
         } else if n >= 4 {
-            dst[..4].copy_from_slice(&s[..4]);
-            dst[n - 4..n].copy_from_slice(&s[n - 4..]);
+            dst[..4].write_copy_of_slice(&s[..4]);
+            dst[n - 4..n].write_copy_of_slice(&s[n - 4..]);
         } else {
             for (d, &b) in dst.iter_mut().zip(s) {
-                *d = b;
+                d.write(b);
             }
         }
         self.len = at + n;
     }
 
     fn finish(mut self) -> Vec<u8> {
-        self.buf.truncate(self.len);
+        // SAFETY: the first `len` bytes are written (see `Out`).
+        unsafe { self.buf.set_len(self.len) };
         self.buf
     }
 }
@@ -270,6 +301,64 @@ mod tests {
             sources: &[],
         };
         Report::new(text.to_string(), vec![finding.clone(), finding])
+    }
+
+    #[test]
+    fn numbers_and_lists_of_every_length_are_written_as_serde_json_writes_them() {
+        // zmij is the float writer serde_json calls; serde_json's own output
+        // is the reference for each value, including the ones a report never
+        // holds (non-finite, written as null), and for string lists of none,
+        // one and several items around them.
+        let values = [
+            0.0,
+            -0.0,
+            1.0,
+            6.0,
+            -13.0,
+            0.1 + 0.2,
+            1.0 / 3.0,
+            2.5e-8,
+            1e15,
+            1e16,
+            1.7976931348623157e308,
+            5e-324,
+            f64::NAN,
+            f64::INFINITY,
+            f64::NEG_INFINITY,
+        ];
+        let words = ["a", "b\"c", "d\ne"].map(String::from);
+        let sources: [&'static [&'static str]; 3] = [&[], &["isa"], &["isa", "momentum-theory"]];
+        let findings = (0..=3)
+            .map(|n| Finding {
+                rule: "r",
+                verdict: Verdict::Consistent,
+                headline: words[..n.min(3)].concat(),
+                figures: values
+                    .iter()
+                    .enumerate()
+                    .map(|(i, &value)| Figure {
+                        key: "k",
+                        label: if i % 2 == 0 {
+                            Cow::Borrowed("fixed words")
+                        } else {
+                            Cow::Owned(words[i % 3].clone())
+                        },
+                        tier: [None, Some(Tier::BestPractice)][i % 2],
+                        value,
+                        unit: "m/s^2",
+                    })
+                    .take(n * 5)
+                    .collect(),
+                would_take: String::new(),
+                assumptions: words[..n.min(3)].to_vec(),
+                sources: sources[n % 3],
+            })
+            .collect();
+        let r = Report::new("t".into(), findings);
+        assert_eq!(
+            String::from_utf8(compact(&r)).unwrap(),
+            serde_json::to_string(&r).unwrap()
+        );
     }
 
     #[test]
