@@ -8,7 +8,8 @@
 #   LOAD_DURATION=10s LOAD_ROUNDS=5 LOAD_WARMUP=2s LOAD_DEMO=hover-lamp
 # Each route gets LOAD_DURATION in all, in LOAD_ROUNDS slices taken in turn (trivial, api, page,
 # demo, trivial, ...), so that a machine that speeds up or slows down during the run (other
-# tenants, frequency) weighs on every route alike rather than on whichever ran then.
+# tenants, frequency) weighs on every route alike rather than on whichever ran then. The targets
+# are judged on the ratios over all rounds; each ratio's range over single rounds is printed too.
 #
 # Loopback only: the server listens on 127.0.0.1 on a port the kernel picks (port 0; the port is
 # read from the server's "listening on" line, so there is no race for a free port).
@@ -21,7 +22,7 @@ report_only="${LOAD_REPORT_ONLY:-0}"
 for arg in "$@"; do
     case "$arg" in
         --report-only) report_only=1 ;;
-        -h | --help) sed -n '2,16p' "$0"; exit 0 ;;
+        -h | --help) sed -n '2,17p' "$0"; exit 0 ;;
         *) echo "load.sh: unknown argument '$arg'" >&2; exit 2 ;;
     esac
 done
@@ -180,7 +181,7 @@ percentile() { # p histogram-file
         }'
 }
 
-declare -A rps p50 p99 errs cpu_us requests micros ticks_used
+declare -A rps p50 p99 errs cpu_us requests micros ticks_used round_rps
 for entry in "${routes[@]}"; do
     IFS='|' read -r name _ script url <<<"$entry"
     wrk -t"$threads" -c"$connections" -d"$warmup" -s "$script" "$url" >/dev/null
@@ -196,6 +197,7 @@ for round in $(seq "$rounds"); do
         echo "$out" >"$work/wrk-$name-$round.txt"
         read -r _ n dur ec er ew es et <<<"$(grep '^LOADRESULT' <<<"$out")"
         grep '^LOADHIST' <<<"$out" >>"$work/hist-$name.txt" || true
+        round_rps[$name.$round]=$(awk -v n="$n" -v d="$dur" 'BEGIN { printf "%.1f", (d > 0 ? n / (d / 1e6) : 0) }')
         requests[$name]=$((requests[$name] + n))
         micros[$name]=$((micros[$name] + dur))
         ticks_used[$name]=$((ticks_used[$name] + cpu1 - cpu0))
@@ -219,8 +221,17 @@ ratio() { awk -v a="$1" -v b="$2" 'BEGIN { printf "%.3f", a / b }'; }
 api_ratio=$(ratio "${rps[api]}" "${rps[trivial]}")
 page_ratio=$(ratio "${rps[page]}" "${rps[trivial]}")
 demo_ratio=$(ratio "${rps[demo]}" "${rps[trivial]}")
+# The same ratios round by round: their spread is how far one run's figure can be trusted (the
+# machine's drift between the slices of a round, which the totals above average out).
+spread() { # route
+    for round in $(seq "$rounds"); do
+        echo "${round_rps[$1.$round]} ${round_rps[trivial.$round]}"
+    done | awk '$2 > 0 { r = $1 / $2; if (n == 0 || r < lo) lo = r; if (n == 0 || r > hi) hi = r; n++ }
+        END { if (n) printf "%.3f to %.3f", lo, hi; else printf "none" }'
+}
 echo
 echo "ratios: api/trivial $api_ratio, page/trivial $page_ratio (demo page/trivial $demo_ratio)"
+echo "round by round: api/trivial $(spread api), page/trivial $(spread page) over $rounds rounds"
 echo "server peak RSS (VmHWM): $rss_mib MiB; log lines written: $(wc -l <"$work/server.log")"
 echo "load average after: $(cut -d' ' -f1-3 /proc/loadavg)"
 echo
