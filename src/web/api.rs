@@ -4,9 +4,8 @@
 //! contract; `GET /api/v1/catalog` with the built-in data the rules use.
 
 use axum::body::Bytes;
-use axum::extract::rejection::BytesRejection;
-use axum::extract::{Path, State};
-use axum::http::{header, HeaderMap, HeaderValue};
+use axum::extract::{FromRequest, Path, Request, State};
+use axum::http::{header, HeaderValue};
 use axum::response::{IntoResponse, Response};
 use axum::{Form, Json};
 use serde::{Deserialize, Serialize};
@@ -25,10 +24,11 @@ use super::SharedState;
 /// commented out.
 pub const SHEET_TEMPLATE: &str = include_str!("../../static/claim-sheet.toml");
 
-/// The sheet format a request's Content-Type names; `None` for a type we do
-/// not read. No type, or plain text, is told by the text itself.
-fn format_of(headers: &HeaderMap, body: &str) -> Result<Format, Error> {
-    let Some(value) = headers.get(header::CONTENT_TYPE) else {
+/// The sheet format a request's Content-Type names; an error for a type we
+/// do not read. No type, or plain text, is told by the text itself. Media
+/// types are compared without regard to case (RFC 9110 section 8.3.1).
+fn format_of(content_type: Option<&HeaderValue>, body: &str) -> Result<Format, Error> {
+    let Some(value) = content_type else {
         return Ok(claim::sniff(body));
     };
     let essence = value
@@ -37,23 +37,29 @@ fn format_of(headers: &HeaderMap, body: &str) -> Result<Format, Error> {
         .split(';')
         .next()
         .unwrap_or("")
-        .trim()
-        .to_ascii_lowercase();
-    match essence.as_str() {
-        "application/toml" | "text/toml" | "application/x-toml" => Ok(Format::Toml),
-        "application/json" => Ok(Format::Json),
-        t if t.ends_with("+json") => Ok(Format::Json),
-        "text/plain" | "" => Ok(claim::sniff(body)),
-        other => Err(Error::UnsupportedMediaType(format!(
-            "'{other}' is not a sheet format; send application/json or application/toml"
-        ))),
+        .trim();
+    let is = |t: &str| essence.eq_ignore_ascii_case(t);
+    let suffix = essence
+        .len()
+        .checked_sub(5)
+        .and_then(|at| essence.get(at..));
+    if is("application/toml") || is("text/toml") || is("application/x-toml") {
+        Ok(Format::Toml)
+    } else if is("application/json") || suffix.is_some_and(|s| s.eq_ignore_ascii_case("+json")) {
+        Ok(Format::Json)
+    } else if is("text/plain") || essence.is_empty() {
+        Ok(claim::sniff(body))
+    } else {
+        Err(Error::UnsupportedMediaType(format!(
+            "'{}' is not a sheet format; send application/json or application/toml",
+            essence.to_ascii_lowercase()
+        )))
     }
 }
 
-fn body_text(body: Result<Bytes, BytesRejection>) -> Result<String, Error> {
-    let bytes = body.map_err(|e| Error::from_status(e.status(), e.body_text()))?;
-    String::from_utf8(bytes.to_vec())
-        .map_err(|_| Error::BadRequest("the body is not UTF-8 text".into()))
+/// The body as text, borrowed from the bytes the request brought.
+fn body_text(bytes: &Bytes) -> Result<&str, Error> {
+    std::str::from_utf8(bytes).map_err(|_| Error::BadRequest("the body is not UTF-8 text".into()))
 }
 
 fn json_response(json: impl IntoResponse, attachment: Option<&str>) -> Response {
@@ -118,13 +124,15 @@ fn api_json(report: &Report) -> Vec<u8> {
         (status = 422, description = "Well-formed, but fields are missing, unknown, in the wrong unit or out of range; one entry per field", body = ErrorBody),
     ),
 )]
-pub async fn check(
-    headers: HeaderMap,
-    body: Result<Bytes, BytesRejection>,
-) -> Result<Response, ApiError> {
-    let text = body_text(body)?;
-    let format = format_of(&headers, &text)?;
-    let report = report_of(&text, format)?;
+pub async fn check(request: Request) -> Result<Response, ApiError> {
+    // The one header we read, rather than a copy of them all for an extractor.
+    let content_type = request.headers().get(header::CONTENT_TYPE).cloned();
+    let bytes = Bytes::from_request(request, &())
+        .await
+        .map_err(|e| Error::from_status(e.status(), e.body_text()))?;
+    let text = body_text(&bytes)?;
+    let format = format_of(content_type.as_ref(), text)?;
+    let report = report_of(text, format)?;
     Ok(json_response(api_json(&report), None))
 }
 
@@ -270,4 +278,62 @@ pub async fn download_sheet(Form(form): Form<SheetForm>) -> Result<Response, Api
         Format::Toml => toml_file(form.sheet, "claim-sheet.toml"),
         Format::Json => json_response(form.sheet, Some("claim-sheet.json")),
     })
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    fn format(content_type: Option<&str>, body: &str) -> Result<Format, String> {
+        let value = content_type.map(|t| HeaderValue::from_str(t).unwrap());
+        format_of(value.as_ref(), body).map_err(|e| match e {
+            Error::UnsupportedMediaType(message) => message,
+            other => format!("{other:?}"),
+        })
+    }
+
+    #[test]
+    fn media_types_are_read_without_regard_to_case_or_parameters() {
+        // RFC 9110 section 8.3.1: type, subtype and parameter names are
+        // case-insensitive; parameters follow a semicolon. Structured syntax
+        // suffixes (RFC 6838 section 4.2.8): "+json" is JSON.
+        for t in [
+            "application/json",
+            "Application/JSON; charset=utf-8",
+            "application/ld+json",
+            "APPLICATION/VND.EXAMPLE+JSON",
+            " application/json ;q=1",
+        ] {
+            assert_eq!(format(Some(t), "title = 'x'"), Ok(Format::Json), "{t}");
+        }
+        for t in [
+            "application/toml",
+            "TEXT/TOML",
+            "application/x-toml; charset=utf-8",
+        ] {
+            assert_eq!(format(Some(t), "{}"), Ok(Format::Toml), "{t}");
+        }
+        // No type, plain text or an empty one: the text tells.
+        for t in [
+            None,
+            Some("text/plain"),
+            Some("Text/Plain; charset=utf-8"),
+            Some(""),
+        ] {
+            assert_eq!(format(t, "{\"title\": 1}"), Ok(Format::Json), "{t:?}");
+            assert_eq!(format(t, "title = 'x'"), Ok(Format::Toml), "{t:?}");
+        }
+    }
+
+    #[test]
+    fn another_media_type_is_refused_by_its_name_in_lower_case() {
+        for t in ["image/png", "IMAGE/PNG; x=1", "json"] {
+            let message = format(Some(t), "{}").unwrap_err();
+            let name = t.split(';').next().unwrap().to_ascii_lowercase();
+            assert!(
+                message.contains(&format!("'{name}' is not a sheet format")),
+                "{message}"
+            );
+        }
+    }
 }
