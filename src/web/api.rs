@@ -31,13 +31,7 @@ fn format_of(content_type: Option<&HeaderValue>, body: &str) -> Result<Format, E
     let Some(value) = content_type else {
         return Ok(claim::sniff(body));
     };
-    let essence = value
-        .to_str()
-        .unwrap_or("")
-        .split(';')
-        .next()
-        .unwrap_or("")
-        .trim();
+    let essence = super::media_type(value);
     let is = |t: &str| essence.eq_ignore_ascii_case(t);
     let suffix = essence
         .len()

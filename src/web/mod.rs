@@ -190,6 +190,19 @@ pub fn app(config: Config) -> Router {
     )
 }
 
+/// The media type of a Content-Type value, without its parameters and the
+/// space around it (RFC 9110 section 8.3.1), as sent: compare it without
+/// regard to case. A value that is not visible ASCII gives "".
+fn media_type(value: &HeaderValue) -> &str {
+    value
+        .to_str()
+        .unwrap_or("")
+        .split(';')
+        .next()
+        .unwrap_or("")
+        .trim()
+}
+
 /// One log line per request, when its answer is ready: method, path,
 /// status and time taken, at error level for a 5xx. A single event rather
 /// than tower-http's span per request with its fields, which cost a sixth

@@ -105,9 +105,7 @@ impl<S: Send + Sync> FromRequest<S> for Submission {
             let urlencoded = req
                 .headers()
                 .get(header::CONTENT_TYPE)
-                .and_then(|v| v.to_str().ok())
-                .and_then(|v| v.split(';').next())
-                .is_some_and(|v| v.trim().eq_ignore_ascii_case(FORM_TYPE));
+                .is_some_and(|v| super::media_type(v).eq_ignore_ascii_case(FORM_TYPE));
             if !urlencoded {
                 return Err(Error::BadRequest(format!(
                     "Form requests must have `Content-Type: {FORM_TYPE}`"
