@@ -8,8 +8,6 @@
 //! senses are as seen from above.
 
 pub mod demo;
-mod plain_json;
-mod plain_toml;
 mod read;
 mod tree;
 pub mod units;
@@ -52,20 +50,6 @@ pub fn parse(text: &str, format: Format) -> Result<Claim, Error> {
 /// `{` is JSON, anything else TOML.
 pub fn parse_any(text: &str) -> Result<Claim, Error> {
     parse(text, sniff(text))
-}
-
-/// What the one-pass reader of plain TOML sheets makes of a text: `None` if it
-/// passes the text to the general parser, else whether the two read the same
-/// tree (for the fuzz target and tests).
-#[doc(hidden)]
-pub fn toml_readers_agree(text: &str) -> Option<bool> {
-    tree::toml_readers_agree(text)
-}
-
-/// The same for the one-pass reader of plain JSON sheets against serde_json.
-#[doc(hidden)]
-pub fn json_readers_agree(text: &str) -> Option<bool> {
-    tree::json_readers_agree(text)
 }
 
 /// The format a sheet's text looks like.

@@ -10,13 +10,7 @@ use serde::de::{self, Deserialize, Deserializer, MapAccess, SeqAccess, Visitor};
 use toml::de::{DeTable, DeValue};
 use toml::Spanned;
 
-use super::{plain_json, plain_toml, Error, Format};
-
-/// Arrays, tables and headers nested deeper than this go from the plain readers
-/// (`plain_toml`, `plain_json`) to the general parsers; so do tables with more
-/// keys than `MAX_KEYS`, which keeps the search for a repeated key short.
-pub(super) const MAX_DEPTH: usize = 8;
-pub(super) const MAX_KEYS: usize = 64;
+use super::{Error, Format};
 
 /// A value of a parsed sheet, before any field is interpreted; its strings
 /// borrow from the sheet's text where they need no unescaping.
@@ -48,26 +42,9 @@ impl Node<'_> {
     }
 }
 
-/// Parses TOML text into a tree; a syntax error carries line and column.
-///
-/// A sheet of the plain shape is read in one pass (`plain_toml`); anything
-/// else, every error included, goes to the general parser.
+/// Parses TOML text into a tree with toml's `DeTable`, which keeps each
+/// value's span, so a syntax error or a number out of range carries line and column.
 pub fn from_toml(text: &str) -> Result<Node<'_>, Error> {
-    match plain_toml::read(text) {
-        Some(tree) => Ok(tree),
-        None => from_toml_general(text),
-    }
-}
-
-/// What the plain reader makes of a text against the general parser: `None` if
-/// it passes the text on, else whether the two read the same tree. The fuzz
-/// target and the robustness tests ask it of any text.
-pub fn toml_readers_agree(text: &str) -> Option<bool> {
-    plain_toml::read(text).map(|tree| from_toml_general(text).is_ok_and(|t| t == tree))
-}
-
-/// Parses TOML text with the general parser (toml 0.9's `DeTable`).
-pub(super) fn from_toml_general(text: &str) -> Result<Node<'_>, Error> {
     let table = DeTable::parse(text).map_err(|e| toml_error(text, e.message(), e.span()))?;
     toml_table(text, table.into_inner())
 }
@@ -85,25 +62,8 @@ fn toml_error(text: &str, message: &str, span: Option<Range<usize>>) -> Error {
     }
 }
 
-/// Parses JSON text into a tree; a syntax error carries line and column.
-///
-/// A sheet of the plain shape is read in one pass (`plain_json`); anything
-/// else, every error included, goes to serde_json.
+/// Parses JSON text into a tree with serde_json; a syntax error carries line and column.
 pub fn from_json(text: &str) -> Result<Node<'_>, Error> {
-    match plain_json::read(text) {
-        Some(tree) => Ok(tree),
-        None => from_json_general(text),
-    }
-}
-
-/// What the plain JSON reader makes of a text against serde_json, as
-/// [`toml_readers_agree`] says it of the TOML readers.
-pub fn json_readers_agree(text: &str) -> Option<bool> {
-    plain_json::read(text).map(|tree| serde_json::from_str::<Node>(text).is_ok_and(|t| t == tree))
-}
-
-/// Parses JSON text with serde_json.
-fn from_json_general(text: &str) -> Result<Node<'_>, Error> {
     match serde_json::from_str::<Node>(text) {
         Ok(node @ Node::Table(_)) => Ok(node),
         Ok(other) => Err(Error::Syntax {
@@ -188,18 +148,11 @@ impl<'de> Visitor<'de> for NodeVisitor {
 
     fn visit_map<A: MapAccess<'de>>(self, mut map: A) -> Result<Node<'de>, A::Error> {
         let mut entries: Vec<(Cow<'de, str>, Node<'de>)> = Vec::new();
-        // Past a few keys a set finds a repeat sooner than a scan does.
+        // RFC 8259 leaves a repeated name to the reader; TOML refuses one, and
+        // so does this reader, so that a key means one thing in both formats.
         let mut seen: HashSet<Cow<'de, str>> = HashSet::new();
         while let Some(Key(key)) = map.next_key()? {
-            let repeated = if entries.len() < SCAN_KEYS {
-                entries.iter().any(|(k, _)| *k == key)
-            } else {
-                if seen.is_empty() {
-                    seen.extend(entries.iter().map(|(k, _)| k.clone()));
-                }
-                !seen.insert(key.clone())
-            };
-            if repeated {
+            if !seen.insert(key.clone()) {
                 return Err(de::Error::custom(format_args!("duplicate key `{key}`")));
             }
             entries.push((key, map.next_value()?));
@@ -207,9 +160,6 @@ impl<'de> Visitor<'de> for NodeVisitor {
         Ok(Node::Table(entries))
     }
 }
-
-/// Keys an object may hold before repeats are looked up in a set.
-const SCAN_KEYS: usize = 16;
 
 /// A JSON object key, borrowed from the text unless it has escapes.
 struct Key<'de>(Cow<'de, str>);
