@@ -25,9 +25,6 @@ const MAX_ROTORS: i64 = 64;
 const MAX_CELLS: i64 = 24;
 const MAX_PARTS: usize = 500;
 const MAX_TEXT: usize = 500;
-/// Room for the keys a table reader asks for, with repeats: the largest
-/// asks for 14 today, and the debug build (every test) asserts the room.
-const KEYS: usize = 16;
 
 /// Collected field errors.
 #[derive(Default)]
@@ -67,12 +64,9 @@ impl fmt::Display for Path<'_> {
 struct Table<'a, 'p> {
     path: Path<'p>,
     entries: &'a [(Cow<'a, str>, Node<'a>)],
-    /// Keys asked for, found or not, for the unknown-key message: the first
-    /// `asked`, kept in place (no reader asks for more than `KEYS`).
-    taken: [&'static str; KEYS],
-    asked: usize,
-    /// One bit for each of the first 64 entries that was found.
-    found: u64,
+    /// Keys asked for, found or not: the ones the table takes, which the
+    /// unknown-key message lists.
+    taken: Vec<&'static str>,
 }
 
 impl<'a, 'p> Table<'a, 'p> {
@@ -81,9 +75,7 @@ impl<'a, 'p> Table<'a, 'p> {
             Node::Table(entries) => Some(Table {
                 path,
                 entries,
-                taken: [""; KEYS],
-                asked: 0,
-                found: 0,
+                taken: Vec::new(),
             }),
             other => {
                 errors.push(path, format!("expected a table, got {}", other.kind()));
@@ -98,22 +90,18 @@ impl<'a, 'p> Table<'a, 'p> {
     }
 
     fn get(&mut self, key: &'static str) -> Option<&'a Node<'a>> {
-        debug_assert!(self.asked < KEYS, "a reader asks for more than KEYS keys");
-        if let Some(slot) = self.taken.get_mut(self.asked) {
-            *slot = key;
-            self.asked += 1;
+        if !self.taken.contains(&key) {
+            self.taken.push(key);
         }
-        let i = self.entries.iter().position(|(k, _)| k == key)?;
-        if i < 64 {
-            self.found |= 1 << i;
-        }
-        Some(&self.entries[i].1)
+        self.entries
+            .iter()
+            .find(|(k, _)| k == key)
+            .map(|(_, node)| node)
     }
 
     fn text(&mut self, key: &'static str, errors: &mut Errors) -> Option<&'a str> {
         match self.get(key)? {
-            // No more bytes than MAX_TEXT is no more characters either.
-            Node::Str(s) if s.len() > MAX_TEXT && s.chars().count() > MAX_TEXT => {
+            Node::Str(s) if s.chars().count() > MAX_TEXT => {
                 errors.push(
                     self.field(key),
                     format!("is longer than {MAX_TEXT} characters"),
@@ -256,23 +244,18 @@ impl<'a, 'p> Table<'a, 'p> {
 
     /// Reports every key that no reader took, in sorted order.
     fn finish(self, errors: &mut Errors) {
-        // Keys in a table are unique, so a bit for every entry means all were taken.
-        if self.found.count_ones() as usize == self.entries.len() {
-            return;
-        }
         let mut unknown: Vec<&str> = self
             .entries
             .iter()
             .map(|(key, _)| key.as_ref())
-            .filter(|key| !self.taken[..self.asked].contains(key))
+            .filter(|key| !self.taken.contains(key))
             .collect();
         if unknown.is_empty() {
             return;
         }
         unknown.sort_unstable();
-        let mut known = self.taken[..self.asked].to_vec();
+        let mut known = self.taken.clone();
         known.sort_unstable();
-        known.dedup();
         let message = format!("unknown key; this table takes {}", known.join(", "));
         for key in unknown {
             errors.push(self.field(key), message.clone());
@@ -340,14 +323,11 @@ fn kg(v: f64) -> String {
 fn m(v: f64) -> String {
     format!("{v} m")
 }
-fn si_unit(unit: &'static str) -> impl Fn(f64) -> String {
-    move |v| format!("{v} {unit}")
-}
 fn watts(v: f64) -> String {
-    si_unit("W")(v)
+    format!("{v} W")
 }
 fn newtons(v: f64) -> String {
-    si_unit("N")(v)
+    format!("{v} N")
 }
 fn hours(v: f64) -> String {
     format!("{} h", v / 3600.0)
