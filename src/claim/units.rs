@@ -189,30 +189,21 @@ pub fn read(text: &str, expected: Dim) -> Result<Reading, String> {
     Ok(Reading { si, dim: unit.dim })
 }
 
-/// Byte index where the leading decimal number of `text` ends.
+/// Byte index where the leading decimal number of `text` ends: a sign, digits
+/// and points, then an exponent only when digits follow it, so "5 e" stays a
+/// unit error. `str::parse::<f64>` reads the number; this only finds its end.
 fn number_end(text: &str) -> usize {
-    let bytes = text.as_bytes();
-    let mut i = 0;
-    if i < bytes.len() && (bytes[i] == b'+' || bytes[i] == b'-') {
-        i += 1;
-    }
-    while i < bytes.len() && (bytes[i].is_ascii_digit() || bytes[i] == b'.') {
-        i += 1;
-    }
-    // An exponent only when digits follow it, so "5 e" stays a unit error.
-    if i < bytes.len() && (bytes[i] == b'e' || bytes[i] == b'E') {
-        let mut j = i + 1;
-        if j < bytes.len() && (bytes[j] == b'+' || bytes[j] == b'-') {
-            j += 1;
-        }
-        if j < bytes.len() && bytes[j].is_ascii_digit() {
-            while j < bytes.len() && bytes[j].is_ascii_digit() {
-                j += 1;
-            }
-            i = j;
-        }
-    }
-    i
+    let digits = |c: char| c.is_ascii_digit();
+    let unsigned = text.strip_prefix(['+', '-']).unwrap_or(text);
+    let after_mantissa = unsigned.trim_start_matches(|c: char| digits(c) || c == '.');
+    let exponent = after_mantissa
+        .strip_prefix(['e', 'E'])
+        .map(|e| e.strip_prefix(['+', '-']).unwrap_or(e));
+    let rest = match exponent {
+        Some(e) if e.starts_with(digits) => e.trim_start_matches(digits),
+        _ => after_mantissa,
+    };
+    text.len() - rest.len()
 }
 
 #[cfg(test)]
