@@ -31,23 +31,16 @@ fn format_of(content_type: Option<&HeaderValue>, body: &str) -> Result<Format, E
     let Some(value) = content_type else {
         return Ok(claim::sniff(body));
     };
-    let essence = super::media_type(value);
-    let is = |t: &str| essence.eq_ignore_ascii_case(t);
-    let suffix = essence
-        .len()
-        .checked_sub(5)
-        .and_then(|at| essence.get(at..));
-    if is("application/toml") || is("text/toml") || is("application/x-toml") {
-        Ok(Format::Toml)
-    } else if is("application/json") || suffix.is_some_and(|s| s.eq_ignore_ascii_case("+json")) {
-        Ok(Format::Json)
-    } else if is("text/plain") || essence.is_empty() {
-        Ok(claim::sniff(body))
-    } else {
-        Err(Error::UnsupportedMediaType(format!(
-            "'{}' is not a sheet format; send application/json or application/toml",
-            essence.to_ascii_lowercase()
-        )))
+    let essence = super::media_type(value).to_ascii_lowercase();
+    match essence.as_str() {
+        "application/toml" | "text/toml" | "application/x-toml" => Ok(Format::Toml),
+        "application/json" => Ok(Format::Json),
+        // A structured syntax suffix (RFC 6838 section 4.2.8): "+json" is JSON.
+        t if t.ends_with("+json") => Ok(Format::Json),
+        "text/plain" | "" => Ok(claim::sniff(body)),
+        other => Err(Error::UnsupportedMediaType(format!(
+            "'{other}' is not a sheet format; send application/json or application/toml"
+        ))),
     }
 }
 
