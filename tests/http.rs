@@ -24,7 +24,8 @@ use liftaudit::web;
 /// the slow part in a debug build.
 fn app() -> Router {
     static APP: OnceLock<Router> = OnceLock::new();
-    APP.get_or_init(|| web::app(web::Config::default())).clone()
+    APP.get_or_init(|| web::app(web::AppState::load(web::Config::default())))
+        .clone()
 }
 
 struct Answer {
@@ -475,6 +476,34 @@ async fn every_answer_carries_the_security_headers() {
     }
 }
 
+#[tokio::test]
+async fn the_router_serves_the_state_it_is_handed() {
+    // A state built here, with no demos: the router answers from it alone.
+    let state = web::AppState {
+        config: web::Config::default(),
+        demos: Vec::new(),
+        openapi: axum::body::Bytes::from_static(b"{}"),
+    };
+    let router = web::app(state);
+    let health = router
+        .clone()
+        .oneshot(Request::get("/healthz").body(Body::empty()).unwrap())
+        .await
+        .unwrap();
+    let bytes = health.into_body().collect().await.unwrap().to_bytes();
+    let v: serde_json::Value = serde_json::from_slice(&bytes).unwrap();
+    assert_eq!(v["demos"], 0);
+    let page = router
+        .oneshot(
+            Request::get(format!("/demo/{}", hover_lamp().name))
+                .body(Body::empty())
+                .unwrap(),
+        )
+        .await
+        .unwrap();
+    assert_eq!(page.status(), StatusCode::NOT_FOUND);
+}
+
 // ---- API ------------------------------------------------------------------
 
 #[tokio::test]
@@ -692,7 +721,7 @@ async fn a_request_that_stalls_is_cut_off_by_the_timeout() {
         request_timeout: Duration::from_millis(300),
         ..web::Config::default()
     };
-    tokio::spawn(async move { axum::serve(listener, web::app(config)).await });
+    tokio::spawn(async move { axum::serve(listener, web::app(web::AppState::load(config))).await });
     // Promises 100 bytes of body and sends 10.
     let answer = raw(
         addr,

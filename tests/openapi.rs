@@ -23,7 +23,8 @@ use liftaudit::web;
 
 fn app() -> Router {
     static APP: OnceLock<Router> = OnceLock::new();
-    APP.get_or_init(|| web::app(web::Config::default())).clone()
+    APP.get_or_init(|| web::app(web::AppState::load(web::Config::default())))
+        .clone()
 }
 
 struct Answer {

@@ -5,18 +5,19 @@
 //! words, so that no drawing relies on colour. A figure the report lacks (a
 //! rule not assessed, a rule not yet written) leaves the drawing out with a
 //! note saying why, never a broken picture. Only numbers and fixed words go
-//! into the SVG; any text is escaped all the same.
+//! into the SVG; any text is escaped all the same, by askama's HTML escaper.
+
+use std::fmt::{self, Write};
+
+use askama::filters::{escape, Html};
 
 use crate::catalog::tiers::{self, Tier};
 use crate::claim::{Claim, Spin};
-use crate::report::{Finding, Report};
+use crate::report::{Finding, Report, Sig3};
 
 use crate::rules::control_authority::{self, LayoutView};
 
 use super::layout;
-use crate::report::say::{self, say, say_to, Joined, Piece};
-use crate::report::{Fixed, Sig3, Tenths};
-use crate::scan::Escapes;
 
 /// One drawing for the page, or the reason it is not drawn.
 #[derive(Debug, Clone)]
@@ -31,16 +32,11 @@ pub struct Drawing {
 }
 
 impl Drawing {
-    /// The caption for the page, escaped as [`super::view::Text`].
-    pub fn caption_text(&self) -> super::view::Text<'_> {
-        super::view::Text(&self.caption)
-    }
-
     fn omitted(id: &'static str, title: &'static str, reason: &str) -> Drawing {
         Drawing {
             id,
             title,
-            caption: say!("Not drawn: ", reason),
+            caption: format!("Not drawn: {reason}"),
             svg: None,
         }
     }
@@ -62,199 +58,93 @@ pub fn all(report: &Report, claim: &Claim, checked: Option<&LayoutView>) -> Vec<
     .collect()
 }
 
-/// The colours of the drawings' strokes and type, as literals, so that
-/// [`pen!`] and [`face!`] can spell out their markup when compiled.
-macro_rules! colour {
-    (ink) => {
-        "#1f2430"
-    };
-    (thrust) => {
-        "#0f5c63"
-    };
-    (force) => {
-        "#8a1c2b"
-    };
-    (muted) => {
-        "#6b7080"
-    };
-}
-
-const INK: &str = colour!(ink);
-const THRUST: &str = colour!(thrust);
-const FORCE: &str = colour!(force);
+const INK: &str = "#1f2430";
+const THRUST: &str = "#0f5c63";
+const FORCE: &str = "#8a1c2b";
+const MUTED: &str = "#6b7080";
 const PAPER: &str = "#fbfaf6";
 const FILL_A: &str = "#9cc7c4";
 const FILL_B: &str = "#e3c58d";
 const DISC: &str = "#eef5f4";
 
-/// A stroke: its width (which also sizes an arrowhead), its colour (which
-/// fills the head), and both as the markup that ends a line, spelt out when
-/// compiled. A drawing has dozens of strokes and a few kinds of pen, so the
-/// attributes are one copy rather than two numbers and two words each time.
+/// A stroke: its width in page units (which also sizes an arrowhead) and
+/// its colour (which fills the head).
 #[derive(Debug, Clone, Copy)]
 struct Pen {
     width: f64,
-    /// The width as [`Fixed`]`(width, 1)` writes it.
-    width_text: &'static str,
     colour: &'static str,
-    /// `" stroke-width="{width}" stroke="{colour}`: after a number, before the end.
-    attrs: &'static str,
 }
 
-/// A [`Pen`] of a colour named as [`colour!`] names it and a width written
-/// with one decimal (checked when compiled: the markup is the literal as
-/// written, which is what `{:.1}` writes only for one decimal).
-macro_rules! pen {
-    ($colour:ident, $width:literal) => {
-        Pen {
-            width: const {
-                assert!(one_decimal(stringify!($width)));
-                $width
-            },
-            width_text: stringify!($width),
-            colour: colour!($colour),
-            attrs: concat!(
-                "\" stroke-width=\"",
-                stringify!($width),
-                "\" stroke=\"",
-                colour!($colour)
-            ),
-        }
-    };
+const fn pen(colour: &'static str, width: f64) -> Pen {
+    Pen { width, colour }
 }
 
-/// How a text is set: anchor (start, middle or end), type size and colour,
-/// as the markup that ends its start tag, spelt out when compiled as a
-/// [`Pen`] is.
+/// How a text is set: its anchor (`start`, `middle` or `end`), type size
+/// and colour.
 #[derive(Debug, Clone, Copy)]
-struct Face(&'static str);
-
-macro_rules! face {
-    ($anchor:literal, $size:literal, $colour:ident) => {
-        Face(
-            const {
-                assert!(one_decimal(stringify!($size)));
-                concat!(
-                    "\" font-size=\"",
-                    stringify!($size),
-                    "\" text-anchor=\"",
-                    $anchor,
-                    "\" fill=\"",
-                    colour!($colour),
-                    "\">"
-                )
-            },
-        )
-    };
+struct Face {
+    anchor: &'static str,
+    size: f64,
+    colour: &'static str,
 }
 
-/// Whether `text` is digits, a point and one digit: a literal that reads as
-/// `{:.1}` writes its value.
-const fn one_decimal(text: &str) -> bool {
-    let b = text.as_bytes();
-    let n = b.len();
-    if n < 3 || b[n - 2] != b'.' || !b[n - 1].is_ascii_digit() {
-        return false;
+const fn face(anchor: &'static str, size: f64, colour: &'static str) -> Face {
+    Face {
+        anchor,
+        size,
+        colour,
     }
-    let mut i = 0;
-    while i < n - 2 {
-        if !b[i].is_ascii_digit() {
-            return false;
-        }
-        i += 1;
-    }
-    true
-}
-
-/// The entity for a character SVG text must not hold as it is (XML 1.0
-/// section 2.4: `<` and `&` in text, quotes in attributes).
-fn svg_entity(b: u8) -> &'static str {
-    match b {
-        b'<' => "&lt;",
-        b'>' => "&gt;",
-        b'&' => "&amp;",
-        b'"' => "&quot;",
-        _ => "&#39;",
-    }
-}
-
-/// Appends `text` to `out` escaped for SVG ([`svg_entity`]).
-fn push_escaped(out: &mut String, text: &str) {
-    let _ = Escapes::Html.write(out, text, svg_entity);
-}
-
-/// A coordinate, as `{:.1}` writes it (see [`Fixed`] and [`Tenths`]).
-fn d1(v: f64) -> Tenths {
-    Tenths(v)
 }
 
 /// A tiny SVG writer: shapes with presentation attributes only (no `style`),
 /// so the page's Content-Security-Policy holds and print keeps the colours.
-/// Each element is written with `say_to!` as literal markup with the syntax
-/// around its numbers (`"<line x1=\""`, `"\" y1=\""`) and the numbers to one
-/// decimal ([`d1`]), straight into the body: a page has hundreds, and the
-/// formatting machinery per number cost more than the drawing. Strokes and
-/// type come as [`Pen`] and [`Face`], their attributes written out already.
+/// Coordinates, widths and sizes are written to one decimal, enough for a
+/// drawing a few hundred units across. Writing to a `String` cannot fail,
+/// so the writes' results are not kept.
 struct Svg {
     body: String,
 }
 
 impl Svg {
     /// A drawing `id` with its title and paper. It is described by the
-    /// figure's caption (`aria-describedby`, the figcaption `{id}-c`), so
-    /// the markup starts here and the body grows in place.
+    /// figure's caption (`aria-describedby`, the figcaption `{id}-c`).
     fn new(id: &str, title: &str, width: f64, height: f64) -> Svg {
-        // A drawing is a few kilobytes; start there, not at zero.
-        let mut body = String::with_capacity(4096);
-        let (w, h) = (Fixed(width, 0), Fixed(height, 0));
-        say_to!(
-            &mut body,
-            "<svg xmlns=\"http://www.w3.org/2000/svg\" class=\"drawing\" viewBox=\"0 0 ",
-            w,
-            " ",
-            h,
-            "\" width=\"",
-            w,
-            "\" height=\"",
-            h,
-            "\" role=\"img\" aria-labelledby=\"",
-            id,
-            "-t\" aria-describedby=\"",
-            id,
-            "-c\" font-family=\"system-ui, sans-serif\"><title id=\"",
-            id,
-            "-t\">",
+        let mut svg = Svg {
+            body: String::new(),
+        };
+        let _ = write!(
+            svg.body,
+            "<svg xmlns=\"http://www.w3.org/2000/svg\" class=\"drawing\" \
+             viewBox=\"0 0 {width:.0} {height:.0}\" width=\"{width:.0}\" height=\"{height:.0}\" \
+             role=\"img\" aria-labelledby=\"{id}-t\" aria-describedby=\"{id}-c\" \
+             font-family=\"system-ui, sans-serif\"><title id=\"{id}-t\">",
         );
-        push_escaped(&mut body, title);
-        say_to!(
-            &mut body,
-            "</title><rect width=\"",
-            w,
-            "\" height=\"",
-            h,
-            "\" fill=\"",
-            PAPER,
-            "\"/>",
+        svg.escaped(title);
+        let _ = write!(
+            svg.body,
+            "</title><rect width=\"{width:.0}\" height=\"{height:.0}\" fill=\"{PAPER}\"/>"
         );
-        Svg { body }
+        svg
+    }
+
+    /// Writes `text` escaped for SVG text and attributes (XML 1.0 section
+    /// 2.4), through askama's `escape` filter with its HTML escaper.
+    fn escaped(&mut self, text: impl fmt::Display) {
+        let Ok(text) = escape(text, Html);
+        let _ = write!(self.body, "{text}");
     }
 
     fn line(&mut self, (x1, y1): (f64, f64), (x2, y2): (f64, f64), pen: Pen, dash: bool) {
-        say_to!(
-            &mut self.body,
-            "<line x1=\"",
-            d1(x1),
-            "\" y1=\"",
-            d1(y1),
-            "\" x2=\"",
-            d1(x2),
-            "\" y2=\"",
-            d1(y2),
-            pen.attrs,
+        let _ = write!(
+            self.body,
+            "<line x1=\"{x1:.1}\" y1=\"{y1:.1}\" x2=\"{x2:.1}\" y2=\"{y2:.1}\" \
+             stroke-width=\"{:.1}\" stroke=\"{}\"{}/>",
+            pen.width,
+            pen.colour,
             if dash {
-                "\" stroke-dasharray=\"5 4\"/>"
+                " stroke-dasharray=\"5 4\""
             } else {
-                "\"/>"
+                ""
             },
         );
     }
@@ -275,62 +165,32 @@ impl Svg {
             (base.0 - uy * half, base.1 + ux * half),
             (base.0 + uy * half, base.1 - ux * half),
         );
-        say_to!(
-            &mut self.body,
-            "<polygon points=\"",
-            d1(to.0),
-            ",",
-            d1(to.1),
-            " ",
-            d1(left.0),
-            ",",
-            d1(left.1),
-            " ",
-            d1(right.0),
-            ",",
-            d1(right.1),
-            "\" fill=\"",
-            pen.colour,
-            "\"/>",
+        let _ = write!(
+            self.body,
+            "<polygon points=\"{:.1},{:.1} {:.1},{:.1} {:.1},{:.1}\" fill=\"{}\"/>",
+            to.0, to.1, left.0, left.1, right.0, right.1, pen.colour,
         );
     }
 
     fn rect(&mut self, x: f64, y: f64, w: f64, h: f64, fill: &str, stroke: &str) {
-        say_to!(
-            &mut self.body,
-            "<rect x=\"",
-            d1(x),
-            "\" y=\"",
-            d1(y),
-            "\" width=\"",
-            d1(w.max(0.0)),
-            "\" height=\"",
-            d1(h.max(0.0)),
-            "\" fill=\"",
-            fill,
-            "\" stroke=\"",
-            stroke,
-            "\"/>",
+        let _ = write!(
+            self.body,
+            "<rect x=\"{x:.1}\" y=\"{y:.1}\" width=\"{:.1}\" height=\"{:.1}\" \
+             fill=\"{fill}\" stroke=\"{stroke}\"/>",
+            w.max(0.0),
+            h.max(0.0),
         );
     }
 
     fn circle(&mut self, (cx, cy): (f64, f64), r: f64, fill: &str, stroke: &str, dash: bool) {
-        say_to!(
-            &mut self.body,
-            "<circle cx=\"",
-            d1(cx),
-            "\" cy=\"",
-            d1(cy),
-            "\" r=\"",
-            d1(r),
-            "\" fill=\"",
-            fill,
-            "\" stroke=\"",
-            stroke,
+        let _ = write!(
+            self.body,
+            "<circle cx=\"{cx:.1}\" cy=\"{cy:.1}\" r=\"{r:.1}\" fill=\"{fill}\" \
+             stroke=\"{stroke}\" stroke-width=\"1.5\"{}/>",
             if dash {
-                "\" stroke-width=\"1.5\" stroke-dasharray=\"4 3\"/>"
+                " stroke-dasharray=\"4 3\""
             } else {
-                "\" stroke-width=\"1.5\"/>"
+                ""
             },
         );
     }
@@ -338,57 +198,23 @@ impl Svg {
     /// An unfilled arc of a circle of radius `r` from `from` to `to` (the
     /// SVG path `M from A r r 0 flags to`; `flags` are the large-arc and
     /// sweep flags).
-    fn arc(
-        &mut self,
-        from: (f64, f64),
-        r: impl Piece + Copy,
-        flags: &str,
-        to: (f64, f64),
-        pen: Pen,
-    ) {
-        say_to!(
-            &mut self.body,
-            "<path stroke-width=\"",
-            pen.width_text,
-            "\" d=\"M ",
-            d1(from.0),
-            " ",
-            d1(from.1),
-            " A ",
-            r,
-            " ",
-            r,
-            " 0 ",
-            flags,
-            " ",
-            d1(to.0),
-            " ",
-            d1(to.1),
-            "\" fill=\"none\" stroke=\"",
-            pen.colour,
-            "\"/>",
+    fn arc(&mut self, from: (f64, f64), r: f64, flags: &str, to: (f64, f64), pen: Pen) {
+        let _ = write!(
+            self.body,
+            "<path stroke-width=\"{:.1}\" d=\"M {:.1} {:.1} A {r:.1} {r:.1} 0 {flags} {:.1} {:.1}\" \
+             fill=\"none\" stroke=\"{}\"/>",
+            pen.width, from.0, from.1, to.0, to.1, pen.colour,
         );
     }
 
-    /// Text at a point, set in `face`. The text's pieces are written in
-    /// place and escaped after, only if they need it (they are numbers and
-    /// the drawings' own words, so almost never).
-    fn text(&mut self, (x, y): (f64, f64), face: Face, text: impl Piece) {
-        say_to!(
-            &mut self.body,
-            "<text x=\"",
-            d1(x),
-            "\" y=\"",
-            d1(y),
-            face.0,
+    /// Text at a point, set in `face`.
+    fn text(&mut self, (x, y): (f64, f64), face: Face, text: impl fmt::Display) {
+        let _ = write!(
+            self.body,
+            "<text x=\"{x:.1}\" y=\"{y:.1}\" font-size=\"{:.1}\" text-anchor=\"{}\" fill=\"{}\">",
+            face.size, face.anchor, face.colour,
         );
-        let start = self.body.len();
-        say_to!(&mut self.body, text);
-        let written = &self.body.as_bytes()[start..];
-        if Escapes::Html.clean_run(written) < written.len() {
-            let raw = self.body.split_off(start);
-            push_escaped(&mut self.body, &raw);
-        }
+        self.escaped(text);
         self.body.push_str("</text>");
     }
 
@@ -491,10 +317,10 @@ pub fn free_body(report: &Report, claim: &Claim) -> Drawing {
 
     // Ground reference and the body, nose (forward, +x) to the right, pitched
     // nose down by the tilt so that thrust leans forward.
-    svg.line((20.0, 285.0), (340.0, 285.0), pen!(muted, 1.0), false);
+    svg.line((20.0, 285.0), (340.0, 285.0), pen(MUTED, 1.0), false);
     svg.text(
         (22.0, 279.0),
-        face!("start", 11.0, muted),
+        face("start", 11.0, MUTED),
         "level ground; forward is to the right",
     );
     let half = 46.0;
@@ -502,7 +328,7 @@ pub fn free_body(report: &Report, claim: &Claim) -> Drawing {
     svg.line(
         (centre.0 - bx, centre.1 - by),
         (centre.0 + bx, centre.1 + by),
-        pen!(ink, 9.0),
+        pen(INK, 9.0),
         false,
     );
     svg.circle(centre, 3.5, PAPER, INK, false);
@@ -515,79 +341,75 @@ pub fn free_body(report: &Report, claim: &Claim) -> Drawing {
     let vertical_tip = (centre.0, centre.1 - f.weight * scale);
     let horizontal_tip = (centre.0 + f.unbalanced * scale, centre.1);
 
-    svg.arrow(centre, weight_tip, pen!(ink, 2.5), false);
+    svg.arrow(centre, weight_tip, pen(INK, 2.5), false);
     svg.text(
         (centre.0 - 8.0, weight_tip.1 - 4.0),
-        face!("end", 12.0, ink),
-        ("weight ", Sig3(f.weight), " N"),
+        face("end", 12.0, INK),
+        format_args!("weight {} N", Sig3(f.weight)),
     );
     if f.unbalanced > 0.0 {
-        svg.line(vertical_tip, thrust_tip, pen!(muted, 1.0), true);
-        svg.line(horizontal_tip, thrust_tip, pen!(muted, 1.0), true);
-        svg.arrow(centre, vertical_tip, pen!(muted, 1.5), true);
+        svg.line(vertical_tip, thrust_tip, pen(MUTED, 1.0), true);
+        svg.line(horizontal_tip, thrust_tip, pen(MUTED, 1.0), true);
+        svg.arrow(centre, vertical_tip, pen(MUTED, 1.5), true);
         svg.text(
             (centre.0 - 8.0, vertical_tip.1 + 12.0),
-            face!("end", 11.0, muted),
-            ("upward part ", Sig3(f.weight), " N"),
+            face("end", 11.0, MUTED),
+            format_args!("upward part {} N", Sig3(f.weight)),
         );
-        svg.arrow(centre, horizontal_tip, pen!(force, 2.5), true);
+        svg.arrow(centre, horizontal_tip, pen(FORCE, 2.5), true);
         svg.text(
             (centre.0 + 46.0, centre.1 + 36.0),
-            face!("start", 12.0, force),
-            ("unbalanced ", Sig3(f.unbalanced), " N"),
+            face("start", 12.0, FORCE),
+            format_args!("unbalanced {} N", Sig3(f.unbalanced)),
         );
         // The tilt angle, between the vertical and the thrust.
         let r = 34.0;
         let end = (centre.0 + r * theta.sin(), centre.1 - r * theta.cos());
-        svg.arc((centre.0, centre.1 - r), r, "0 1", end, pen!(ink, 1.2));
+        svg.arc((centre.0, centre.1 - r), r, "0 1", end, pen(INK, 1.2));
         let mid = theta / 2.0;
         svg.text(
             (
                 centre.0 + (r + 6.0) * mid.sin(),
                 centre.1 - (r + 6.0) * mid.cos(),
             ),
-            face!("start", 11.0, ink),
-            ("tilt ", Sig3(f.tilt_deg), " deg"),
+            face("start", 11.0, INK),
+            format_args!("tilt {} deg", Sig3(f.tilt_deg)),
         );
     }
-    svg.arrow(centre, thrust_tip, pen!(thrust, 3.0), false);
+    svg.arrow(centre, thrust_tip, pen(THRUST, 3.0), false);
     svg.text(
         (thrust_tip.0 + 6.0, (thrust_tip.1 + 4.0).max(14.0)),
-        face!("start", 12.0, thrust),
-        ("thrust ", Sig3(f.thrust), " N"),
+        face("start", 12.0, THRUST),
+        format_args!("thrust {} N", Sig3(f.thrust)),
     );
 
     // Scale bar, bottom right.
     let step = nice_step(f.weight * 1.5);
     let bar = step * scale;
-    svg.line((330.0 - bar, 265.0), (330.0, 265.0), pen!(ink, 2.0), false);
+    svg.line((330.0 - bar, 265.0), (330.0, 265.0), pen(INK, 2.0), false);
     svg.text(
         (330.0, 258.0),
-        face!("end", 11.0, ink),
-        ("", Sig3(step), " N"),
+        face("end", 11.0, INK),
+        format_args!("{} N", Sig3(step)),
     );
 
     let caption = if f.unbalanced > 0.0 {
-        say!(
-            "Side view, to scale (",
+        format!(
+            "Side view, to scale ({} N per bar). Tilted {} deg, the rotors must push {} N to carry \
+             the {} N weight, and the forward part of that push, {} N, has nothing to balance it \
+             in still air: the craft would accelerate forward.",
             Sig3(step),
-            " N per bar). Tilted ",
             Sig3(f.tilt_deg),
-            " deg, the rotors must push ",
             Sig3(f.thrust),
-            " N to carry the ",
             Sig3(f.weight),
-            " N weight, and the forward part of that push, ",
             Sig3(f.unbalanced),
-            " N, has nothing to balance it in still air: the craft would accelerate forward.",
         )
     } else {
-        say!(
-            "Side view, to scale (",
+        format!(
+            "Side view, to scale ({} N per bar). Level, the rotors carry the {} N weight straight \
+             up; no force is left over.",
             Sig3(step),
-            " N per bar). Level, the rotors carry the ",
             Sig3(f.weight),
-            " N weight straight up; no force is left over.",
         )
     };
     Drawing {
@@ -607,21 +429,21 @@ fn axis(svg: &mut Svg, max: f64, y: f64, unit: &str) {
     let mut v = 0.0;
     while v <= max * 1.0001 {
         let x = BAR_X + v / max * BAR_W;
-        svg.line((x, y), (x, y + 4.0), pen!(muted, 1.0), false);
-        svg.text((x, y + 15.0), face!("middle", 10.0, muted), Sig3(v));
+        svg.line((x, y), (x, y + 4.0), pen(MUTED, 1.0), false);
+        svg.text((x, y + 15.0), face("middle", 10.0, MUTED), Sig3(v));
         v += step;
     }
-    svg.line((BAR_X, y), (BAR_X + BAR_W, y), pen!(muted, 1.0), false);
-    svg.text((BAR_X + BAR_W, y + 28.0), face!("end", 10.0, muted), unit);
+    svg.line((BAR_X, y), (BAR_X + BAR_W, y), pen(MUTED, 1.0), false);
+    svg.text((BAR_X + BAR_W, y + 28.0), face("end", 10.0, MUTED), unit);
 }
 
 /// A value label at the end of a bar: beside it when there is room, else
 /// inside its end.
 fn bar_label(svg: &mut Svg, end: f64, y: f64, text: &str) {
     if end + 6.0 + 6.0 * text.len() as f64 <= BAR_X + BAR_W + 20.0 {
-        svg.text((end + 5.0, y), face!("start", 10.5, ink), text);
+        svg.text((end + 5.0, y), face("start", 10.5, INK), text);
     } else {
-        svg.text((end - 5.0, y), face!("end", 10.5, ink), text);
+        svg.text((end - 5.0, y), face("end", 10.5, INK), text);
     }
 }
 
@@ -657,7 +479,7 @@ pub fn thrust_bar(report: &Report) -> Drawing {
         let y = top + i as f64 * row_h;
         svg.text(
             (BAR_X - 8.0, y + 15.0),
-            face!("end", 12.0, ink),
+            face("end", 12.0, INK),
             tier.label(),
         );
         let end = x_of(*available);
@@ -666,34 +488,33 @@ pub fn thrust_bar(report: &Report) -> Drawing {
         svg.line(
             (hover_x, y - 1.0),
             (hover_x, y + 23.0),
-            pen!(ink, 2.5),
+            pen(INK, 2.5),
             false,
         );
-        bar_label(&mut svg, end, y + 15.0, &say!(Sig3(*available), " N"));
+        bar_label(&mut svg, end, y + 15.0, &format!("{} N", Sig3(*available)));
     }
     let wx = x_of(weight);
-    svg.line((wx, top - 8.0), (wx, bottom), pen!(force, 2.0), true);
+    svg.line((wx, top - 8.0), (wx, bottom), pen(FORCE, 2.0), true);
     svg.text(
         (wx.clamp(BAR_X + 40.0, BAR_X + BAR_W - 40.0), top - 12.0),
-        face!("middle", 11.0, force),
-        ("weight ", Sig3(weight), " N"),
+        face("middle", 11.0, FORCE),
+        format_args!("weight {} N", Sig3(weight)),
     );
     axis(&mut svg, max, bottom, "newtons");
     svg.text(
         (10.0, bottom + 52.0),
-        face!("start", 10.5, ink),
-        (
-            "bar: all rotors at full power; solid mark: ",
-            Fixed(hover_share * 100.0, 0),
-            " % of it, the most to hover on",
+        face("start", 10.5, INK),
+        format_args!(
+            "bar: all rotors at full power; solid mark: {:.0} % of it, the most to hover on",
+            hover_share * 100.0
         ),
     );
-    let caption = say!(
-        "Bars to scale: the thrust all rotors give at full power under each set of assumptions. The dashed line is the weight, ",
+    let caption = format!(
+        "Bars to scale: the thrust all rotors give at full power under each set of assumptions. \
+         The dashed line is the weight, {} N; the solid mark on each bar is {:.0} % of that bar, \
+         the most a craft should spend just to hover.",
         Sig3(weight),
-        " N; the solid mark on each bar is ",
-        Fixed(hover_share * 100.0, 0),
-        " % of that bar, the most a craft should spend just to hover.",
+        hover_share * 100.0,
     );
     Drawing {
         id: ID,
@@ -740,7 +561,7 @@ pub fn energy_bar(report: &Report) -> Drawing {
         let y = top + i as f64 * row_h;
         svg.text(
             (BAR_X - 8.0, y + 20.0),
-            face!("end", 12.0, ink),
+            face("end", 12.0, INK),
             tier.label(),
         );
         let end = x_of(*stored);
@@ -749,7 +570,7 @@ pub fn energy_bar(report: &Report) -> Drawing {
             &mut svg,
             end,
             y + 11.0,
-            &say!("stored ", Sig3(*stored), " Wh"),
+            &format!("stored {} Wh", Sig3(*stored)),
         );
         if let Some(needed) = needed {
             let end = x_of(*needed);
@@ -758,21 +579,21 @@ pub fn energy_bar(report: &Report) -> Drawing {
                 &mut svg,
                 end,
                 y + 28.0,
-                &say!("needed ", Sig3(*needed), " Wh"),
+                &format!("needed {} Wh", Sig3(*needed)),
             );
         }
     }
     axis(&mut svg, max, bottom - 4.0, "watt-hours");
     svg.text(
         (10.0, bottom + 48.0),
-        face!("start", 10.5, ink),
+        face("start", 10.5, INK),
         "upper bar: usable energy stored; lower bar: energy the claim needs",
     );
     let caption = match claimed_min {
-        Some(min) if rows.iter().any(|r| r.2.is_some()) => say!(
-            "Bars to scale: the battery's usable energy under each set of assumptions, and the energy hovering for the claimed ",
+        Some(min) if rows.iter().any(|r| r.2.is_some()) => format!(
+            "Bars to scale: the battery's usable energy under each set of assumptions, and the \
+             energy hovering for the claimed {} min takes at that set's hover power.",
             Sig3(min),
-            " min takes at that set's hover power.",
         ),
         _ => "Bars to scale: the battery's usable energy under each set of assumptions. No flight time is claimed, so no energy needed is drawn.".to_string(),
     };
@@ -792,46 +613,44 @@ pub fn rotor_layout(claim: &Claim, plan: Option<&layout::Plan>) -> Drawing {
         return Drawing::omitted(
             ID,
             TITLE,
-            &say!(
-                "the sheet does not say how its ",
+            &format!(
+                "the sheet does not say how its {} rotors are arranged (give rotors.layout and \
+                 rotors.arm, or layout = \"custom\" with [[rotors.at]]).",
                 claim.rotors.count,
-                " rotors are arranged (give rotors.layout and rotors.arm, or layout = \"custom\" with [[rotors.at]]).",
             ),
         );
     };
     let (svg, scale_note) = draw_plan(ID, TITLE, plan, None);
-    let axes: Vec<&str> = plan.lacking.iter().map(|a| a.id()).collect();
-    let caption = say!(
-        "Top view, to scale (",
-        &scale_note,
-        " per bar), front up: ",
-        plan.rotors.len(),
-        if plan.rotors.len() == 1 {
-            " rotor"
-        } else {
-            " rotors"
-        },
-        ", numbered from the nose clockwise, each marked with its spin as seen from above.",
-        plan.arm_assumed.then_some((
-            " The sheet gives no arm length, so positions are drawn to a ",
-            layout::STAND_IN_ARM_MM,
-            " mm arm.",
-        )),
-        plan.diameter
-            .is_none()
-            .then_some(" The sheet gives no rotor diameter; dashed discs are not to scale."),
-        (claim.rotors.spins.is_none() && claim.rotors.at.is_empty())
-            .then_some(" Spins are not stated; the usual alternating pattern is drawn."),
-        plan.rotors
-            .iter()
-            .any(|r| r.tilts)
-            .then_some(" Rotors marked \"tilts\" have a tilt actuator."),
-        (!axes.is_empty()).then_some((
-            " At hover these rotors cannot command: ",
-            Joined(&axes, ", "),
-            ".",
-        )),
+    let n = plan.rotors.len();
+    let mut caption = format!(
+        "Top view, to scale ({scale_note} per bar), front up: {n} {}, numbered from the nose \
+         clockwise, each marked with its spin as seen from above.",
+        if n == 1 { "rotor" } else { "rotors" },
     );
+    if plan.arm_assumed {
+        let _ = write!(
+            caption,
+            " The sheet gives no arm length, so positions are drawn to a {} mm arm.",
+            layout::STAND_IN_ARM_MM
+        );
+    }
+    if plan.diameter.is_none() {
+        caption.push_str(" The sheet gives no rotor diameter; dashed discs are not to scale.");
+    }
+    if claim.rotors.spins.is_none() && claim.rotors.at.is_empty() {
+        caption.push_str(" Spins are not stated; the usual alternating pattern is drawn.");
+    }
+    if plan.rotors.iter().any(|r| r.tilts) {
+        caption.push_str(" Rotors marked \"tilts\" have a tilt actuator.");
+    }
+    if !plan.lacking.is_empty() {
+        let axes: Vec<&str> = plan.lacking.iter().map(|a| a.id()).collect();
+        let _ = write!(
+            caption,
+            " At hover these rotors cannot command: {}.",
+            axes.join(", ")
+        );
+    }
     Drawing {
         id: ID,
         title: TITLE,
@@ -863,26 +682,22 @@ pub fn rotor_failure(claim: &Claim, plan: Option<&layout::Plan>) -> Option<Drawi
     let typical = acai[2];
     // An index within rounding of zero is zero: no margin at all for some moment.
     let caption = if typical > ZERO_AUTHORITY {
-        say!(
-            "Top view (",
-            &scale_note,
-            " per bar) with rotor ",
-            lost,
-            " stopped, the loss that hurts most. The rest can still hold a hover: their available control authority index (Du et al. 2015) stays at ",
+        format!(
+            "Top view ({scale_note} per bar) with rotor {lost} stopped, the loss that hurts most. \
+             The rest can still hold a hover: their available control authority index (Du et al. \
+             2015) stays at {} with typical hardware.",
             Sig3(typical),
-            " with typical hardware.",
         )
     } else {
-        let below_zero =
-            (typical.abs() > ZERO_AUTHORITY).then_some((Sig3(typical), ", below zero", ""));
-        say!(
-            "Top view (",
-            &scale_note,
-            " per bar) with rotor ",
-            lost,
-            " stopped, the loss that hurts most. The rest cannot hold a hover: their available control authority index (Du et al. 2015) is ",
-            say::Or(below_zero, "zero"),
-            " with typical hardware, so some moment the craft needs is out of reach.",
+        let index = if typical.abs() > ZERO_AUTHORITY {
+            format!("{}, below zero", Sig3(typical))
+        } else {
+            "zero".to_string()
+        };
+        format!(
+            "Top view ({scale_note} per bar) with rotor {lost} stopped, the loss that hurts most. \
+             The rest cannot hold a hover: their available control authority index (Du et al. \
+             2015) is {index} with typical hardware, so some moment the craft needs is out of reach.",
         )
     };
     Some(Drawing {
@@ -917,17 +732,17 @@ fn draw_plan(id: &str, title: &str, plan: &layout::Plan, lost: Option<usize>) ->
     svg.arrow(
         (centre.0, centre.1 - 14.0),
         (centre.0, 14.0),
-        pen!(muted, 1.0),
+        pen(MUTED, 1.0),
         true,
     );
-    svg.text((centre.0 + 6.0, 16.0), face!("start", 11.0, muted), "front");
+    svg.text((centre.0 + 6.0, 16.0), face("start", 11.0, MUTED), "front");
     let coaxial = plan.rotors.len() > 1
         && plan
             .rotors
             .iter()
             .all(|r| r.x.abs() < 1e-9 && r.y.abs() < 1e-9);
     for r in &plan.rotors {
-        svg.line(centre, to_page(r.x, r.y), pen!(ink, 4.0), false);
+        svg.line(centre, to_page(r.x, r.y), pen(INK, 4.0), false);
     }
     svg.rect(centre.0 - 9.0, centre.1 - 9.0, 18.0, 18.0, INK, INK);
     for (i, r) in plan.rotors.iter().enumerate() {
@@ -941,13 +756,13 @@ fn draw_plan(id: &str, title: &str, plan: &layout::Plan, lost: Option<usize>) ->
             svg.line(
                 (c.0 - d, c.1 - d),
                 (c.0 + d, c.1 + d),
-                pen!(force, 2.5),
+                pen(FORCE, 2.5),
                 false,
             );
             svg.line(
                 (c.0 - d, c.1 + d),
                 (c.0 + d, c.1 - d),
-                pen!(force, 2.5),
+                pen(FORCE, 2.5),
                 false,
             );
         } else {
@@ -962,12 +777,12 @@ fn draw_plan(id: &str, title: &str, plan: &layout::Plan, lost: Option<usize>) ->
         let tilts = if r.tilts && coaxial { " tilts" } else { "" };
         let label = if coaxial {
             let level = if i == 0 { "upper" } else { "lower" };
-            say!(i + 1, " ", level, " ", spin, tilts)
+            format!("{} {level} {spin}{tilts}", i + 1)
         } else {
-            say!(i + 1, " ", spin)
+            format!("{} {spin}", i + 1)
         };
         if r.tilts && !coaxial {
-            svg.text((c.0, c.1 + rad + 12.0), face!("middle", 10.5, ink), "tilts");
+            svg.text((c.0, c.1 + rad + 12.0), face("middle", 10.5, INK), "tilts");
         }
         let at = if coaxial {
             (centre.0 + rad + 4.0, c.1 - rad + 12.0 + 14.0 * i as f64)
@@ -977,18 +792,18 @@ fn draw_plan(id: &str, title: &str, plan: &layout::Plan, lost: Option<usize>) ->
             (c.0, c.1 + 4.0)
         };
         let face = match (coaxial, stopped) {
-            (true, true) => face!("start", 11.0, force),
-            (true, false) => face!("start", 11.0, ink),
-            (false, true) => face!("middle", 11.0, force),
-            (false, false) => face!("middle", 11.0, ink),
+            (true, true) => face("start", 11.0, FORCE),
+            (true, false) => face("start", 11.0, INK),
+            (false, true) => face("middle", 11.0, FORCE),
+            (false, false) => face("middle", 11.0, INK),
         };
         svg.text(at, face, &label);
     }
     let step_m = nice_step(extent * 2.0);
     let bar = step_m * scale;
-    svg.line((300.0 - bar, 305.0), (300.0, 305.0), pen!(ink, 2.0), false);
-    let step_label = say!(Sig3(step_m * 1000.0), " mm");
-    svg.text((300.0, 298.0), face!("end", 11.0, ink), &step_label);
+    svg.line((300.0 - bar, 305.0), (300.0, 305.0), pen(INK, 2.0), false);
+    let step_label = format!("{} mm", Sig3(step_m * 1000.0));
+    svg.text((300.0, 298.0), face("end", 11.0, INK), &step_label);
     (svg, step_label)
 }
 
@@ -1008,7 +823,7 @@ fn spin_arrow(svg: &mut Svg, (cx, cy): (f64, f64), r: f64, spin: Spin) {
     };
     let (s, e) = (point(a0), point(a1));
     let flags = if sweep_cw { "1 1" } else { "1 0" };
-    svg.arc(s, d1(r), flags, e, pen!(thrust, 1.5));
+    svg.arc(s, r, flags, e, pen(THRUST, 1.5));
     // Head tangent to the arc at its end, pointing along the turn.
     let t = a1.to_radians();
     let dir = if sweep_cw { 1.0 } else { -1.0 };
@@ -1016,7 +831,7 @@ fn spin_arrow(svg: &mut Svg, (cx, cy): (f64, f64), r: f64, spin: Spin) {
     svg.arrow(
         (e.0 - tangent.0 * 9.0, e.1 - tangent.1 * 9.0),
         (e.0 + tangent.0 * 4.0, e.1 + tangent.1 * 4.0),
-        pen!(thrust, 2.0),
+        pen(THRUST, 2.0),
         false,
     );
 }
@@ -1024,45 +839,6 @@ fn spin_arrow(svg: &mut Svg, (cx, cy): (f64, f64), r: f64, spin: Spin) {
 #[cfg(test)]
 mod tests {
     use super::*;
-
-    #[test]
-    fn pens_and_faces_spell_out_what_their_numbers_and_colours_write() {
-        let pen = pen!(muted, 2.5);
-        let expected = say!(
-            "\" stroke-width=\"",
-            Fixed(2.5, 1),
-            "\" stroke=\"",
-            "#6b7080"
-        );
-        assert_eq!(pen.attrs, expected);
-        assert_eq!(pen.width_text, Fixed(pen.width, 1).to_string());
-        assert_eq!(pen.colour, "#6b7080");
-        let face = face!("end", 10.5, ink);
-        let expected = say!(
-            "\" font-size=\"",
-            Fixed(10.5, 1),
-            "\" text-anchor=\"end\" fill=\"",
-            INK,
-            "\">"
-        );
-        assert_eq!(face.0, expected);
-    }
-
-    #[test]
-    fn a_literal_with_one_decimal_is_what_the_formatter_writes_for_its_value() {
-        // The check pen! and face! make when compiled: "d.d" as written is
-        // `{:.1}` of the value it reads as (from 0.0 to 99.9), and anything
-        // else is refused.
-        for n in 0..1000 {
-            let text = format!("{}.{}", n / 10, n % 10);
-            assert!(one_decimal(&text), "{text}");
-            let value: f64 = text.parse().unwrap();
-            assert_eq!(Fixed(value, 1).to_string(), text);
-        }
-        for text in ["", "1", "1.", ".5", "2.50", "1e1", "-1.0", "1.5 ", "10,5"] {
-            assert!(!one_decimal(text), "{text:?}");
-        }
-    }
 
     use crate::claim::{self, Format};
     use crate::report::{Figure, Finding, Verdict};
@@ -1203,8 +979,13 @@ mod tests {
 
     #[test]
     fn svg_text_is_escaped() {
-        let mut out = String::new();
-        push_escaped(&mut out, "<a href=\"x\">&'");
-        assert_eq!(out, "&lt;a href=&quot;x&quot;&gt;&amp;&#39;");
+        let mut svg = Svg::new("fig-t", "a <title> & more", 10.0, 10.0);
+        svg.text((1.0, 2.0), face("start", 11.0, INK), "<a href=\"x\">&'");
+        let out = svg.finish();
+        assert!(out.contains("<title id=\"fig-t-t\">a &#60;title&#62; &#38; more</title>"));
+        assert!(
+            out.contains(">&#60;a href=&#34;x&#34;&#62;&#38;&#39;</text>"),
+            "{out}"
+        );
     }
 }

@@ -71,17 +71,17 @@ pub struct LoadedDemo {
     pub demo: &'static demo::Demo,
     pub claim: Claim,
     pub report: Report,
-    /// The demo's verdict page. It depends on nothing but the demo, and
-    /// drawing and rendering it cost five times a trivial request
-    /// (tests/load.sh), so it is rendered here and served as it is. `None`
-    /// only if rendering failed: the page is then rendered per request and
-    /// answers the error as any page would.
+    /// The demo's verdict page, rendered once: it depends on nothing but
+    /// the demo. `None` only if rendering failed: the page is then rendered
+    /// per request and answers the error as any page would.
     pub page: Option<Bytes>,
 }
 
-/// What every handler shares: the demos, ready to show, and the OpenAPI
-/// document, written once.
+/// What every handler shares: the tunables, the demos ready to show, and
+/// the OpenAPI document, written once. Built outside [`app`] (by [`serve`]
+/// and by the tests) so that a test can hand the router a state of its own.
 pub struct AppState {
+    pub config: Config,
     pub demos: Vec<LoadedDemo>,
     pub openapi: axum::body::Bytes,
 }
@@ -90,7 +90,7 @@ impl AppState {
     /// Reads and checks every built-in demo. A demo that does not parse is
     /// logged and left out rather than stopping the service; a unit test
     /// keeps all of them parsing.
-    pub fn load() -> AppState {
+    pub fn load(config: Config) -> AppState {
         let demos = demo::DEMOS
             .iter()
             .filter_map(|d| match claim::parse(d.text, claim::Format::Toml) {
@@ -119,7 +119,11 @@ impl AppState {
         let openapi = serde_json::to_string_pretty(&openapi::document())
             .unwrap_or_default()
             .into();
-        AppState { demos, openapi }
+        AppState {
+            config,
+            demos,
+            openapi,
+        }
     }
 
     pub fn demo(&self, name: &str) -> Option<&LoadedDemo> {
@@ -129,10 +133,11 @@ impl AppState {
 
 pub type SharedState = Arc<AppState>;
 
-/// The whole service as a router, with its security and resource layers.
-pub fn app(config: Config) -> Router {
-    let state: SharedState = Arc::new(AppState::load());
-    tracing::info!(demos = state.demos.len(), "demo claims loaded");
+/// The whole service as a router over `state`, with its security and
+/// resource layers (their limits from `state.config`).
+pub fn app(state: AppState) -> Router {
+    let config = state.config.clone();
+    let state: SharedState = Arc::new(state);
 
     let routes = Router::new()
         .route("/", get(pages::index))
@@ -204,9 +209,7 @@ fn media_type(value: &HeaderValue) -> &str {
 }
 
 /// One log line per request, when its answer is ready: method, path,
-/// status and time taken, at error level for a 5xx. A single event rather
-/// than tower-http's span per request with its fields, which cost a sixth
-/// of a trivial request (perf under tests/load.sh).
+/// status and time taken, at error level for a 5xx.
 async fn access_log(request: Request, next: Next) -> Response {
     let start = Instant::now();
     let method = request.method().clone();
@@ -227,7 +230,9 @@ async fn access_log(request: Request, next: Next) -> Response {
 pub async fn serve(addr: SocketAddr, config: Config) -> std::io::Result<()> {
     let listener = tokio::net::TcpListener::bind(addr).await?;
     let local = listener.local_addr()?;
-    let router = app(config);
+    let state = AppState::load(config);
+    tracing::info!(demos = state.demos.len(), "demo claims loaded");
+    let router = app(state);
     tracing::info!("liftaudit listening on http://{local}/");
     axum::serve(listener, router)
         .with_graceful_shutdown(shutdown_signal())

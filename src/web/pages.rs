@@ -114,12 +114,14 @@ impl<S: Send + Sync> FromRequest<S> for Submission {
             let body = Bytes::from_request(req, state)
                 .await
                 .map_err(|e| Error::from_status(e.status(), e.body_text()))?;
-            for (name, value) in form::urlencoded_pairs(&body) {
-                match name.as_str() {
-                    "sheet" => sub.sheet = value,
-                    "from" => sub.from = Some(value),
+            // Split and decoded as the WHATWG URL standard says (section 5.1):
+            // `+` is a space, `%XX` a byte, U+FFFD for what is not UTF-8.
+            for (name, value) in form_urlencoded::parse(&body) {
+                match &*name {
+                    "sheet" => sub.sheet = value.into_owned(),
+                    "from" => sub.from = Some(value.into_owned()),
                     _ => {
-                        sub.fields.insert(name, value);
+                        sub.fields.insert(name.into_owned(), value.into_owned());
                     }
                 }
             }
@@ -186,16 +188,7 @@ pub async fn check(State(state): State<SharedState>, sub: Submission) -> Result<
 fn verdict(claim: &claim::Claim, downloads: Downloads) -> Result<Response, Error> {
     let (report, layout) = rules::run_all_with_layout(claim);
     let page = VerdictPage::new(&report, claim, layout.as_ref(), downloads);
-    Ok(Html(render_verdict(&page)?).into_response())
-}
-
-/// A verdict page is 30 to 40 kB with its drawings, far above the size
-/// askama guesses from the template; one buffer of that size up front saves
-/// the copying of a dozen doublings.
-fn render_verdict(page: &VerdictPage) -> Result<String, askama::Error> {
-    let mut html = String::with_capacity(48 * 1024);
-    page.render_into(&mut html)?;
-    Ok(html)
+    Ok(Html(page.render()?).into_response())
 }
 
 /// A demo's verdict page, as [`AppState::load`](super::AppState::load)
@@ -209,7 +202,7 @@ pub fn demo_page(
         demo: Some(d.name),
         sheet: d.text.to_string(),
     };
-    render_verdict(&VerdictPage::new(report, claim, None, downloads))
+    VerdictPage::new(report, claim, None, downloads).render()
 }
 
 /// `GET /demo/{name}`: a demo's verdict page, checked and rendered at

@@ -1,101 +1,23 @@
 //! View models: everything a template shows, already in words and rounded
-//! numbers, so templates hold no logic beyond loops and conditions. Askama
-//! escapes every field for HTML, the report's own text through [`Text`];
-//! only the server-built SVG in [`super::figures`] and the fixed icons below
-//! are inserted unescaped.
+//! numbers, so templates hold no logic beyond loops and conditions. The
+//! models hold plain text and askama escapes every field for HTML; only the
+//! server-built SVG in [`super::figures`] and the fixed icons below are
+//! inserted unescaped (`|safe`).
 
-use std::fmt;
+use std::fmt::{self, Write};
 
 use askama::Template;
 use axum::http::StatusCode;
 
 use crate::catalog::tiers::{self, Tier};
 use crate::claim::Claim;
-use crate::report::say::{say, say_to, Piece};
-use crate::report::{sig3, Figure, Finding, Report, Sig3, Verdict};
+use crate::report::{Figure, Finding, Report, Sig3, Verdict};
 use crate::rules::{self, control_authority::LayoutView};
-use crate::scan::Escapes;
 use crate::sources::{self, Source};
 
 use super::figures::{self, Drawing};
 use super::form::FormView;
 use super::LoadedDemo;
-
-/// Text of the report on a page, escaped for HTML as it is written, with
-/// the same entities as askama's escaper (`&#60;` and so on), but finding
-/// them sixteen bytes at a time ([`Escapes::clean_run`]): askama looks at
-/// each byte, and escaping the report's text that way was a fifth of
-/// rendering a verdict page (callgrind, `render-page`).
-#[derive(Debug, Clone, Copy)]
-pub struct Text<'a>(pub &'a str);
-
-impl Text<'_> {
-    pub fn is_empty(&self) -> bool {
-        self.0.is_empty()
-    }
-}
-
-impl Text<'_> {
-    fn write_to<W: fmt::Write + ?Sized>(&self, out: &mut W) -> fmt::Result {
-        Escapes::Html.write(out, self.0, |b| match b {
-            b'"' => "&#34;",
-            b'&' => "&#38;",
-            b'\'' => "&#39;",
-            b'<' => "&#60;",
-            _ => "&#62;",
-        })
-    }
-}
-
-/// Display, askama's HtmlSafe and FastWritable for a type that writes its
-/// own HTML with `write_to`. Its Display escapes (or needs no escape), so
-/// askama must not escape it again; and askama writes a FastWritable value
-/// straight into the page, not through `write!` and a Formatter: a verdict
-/// page has some 250 values, and the formatting machinery around each cost
-/// more than escaping it.
-macro_rules! writes_its_own_html {
-    ($($t:ty),+) => {$(
-        impl fmt::Display for $t {
-            fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
-                self.write_to(f)
-            }
-        }
-
-        impl askama::filters::HtmlSafe for $t {}
-
-        impl askama::FastWritable for $t {
-            fn write_into<W: fmt::Write + ?Sized>(
-                &self,
-                dest: &mut W,
-                _: &dyn askama::Values,
-            ) -> askama::Result<()> {
-                Ok(self.write_to(dest)?)
-            }
-        }
-    )+};
-}
-writes_its_own_html!(Text<'_>, Plain);
-
-/// Text of our own with nothing to escape, written as it is: verdict ids,
-/// labels and meanings, tier labels, rule ids and titles, units, source ids
-/// and titles, the cautions and the engine. A test holds each set free of
-/// the characters HTML escapes, and the debug build asserts it of each one
-/// written; anything from a sheet, or a sentence a rule writes, is a
-/// [`Text`].
-#[derive(Debug, Clone, Copy)]
-pub struct Plain(pub &'static str);
-
-impl Plain {
-    fn write_to<W: fmt::Write + ?Sized>(&self, out: &mut W) -> fmt::Result {
-        debug_assert_eq!(
-            Escapes::Html.clean_run(self.0.as_bytes()),
-            self.0.len(),
-            "{}",
-            self.0
-        );
-        out.write_str(self.0)
-    }
-}
 
 /// A value in a finding's table: counts as whole numbers, everything else
 /// to three significant figures ([`Sig3`]), "-" where a tier has none.
@@ -121,26 +43,8 @@ impl fmt::Display for Cell {
         match *self {
             Cell::Missing => f.write_str("-"),
             Cell::Count(n) => write!(f, "{n}"),
-            Cell::Number(v) => Sig3(v).fmt(f),
+            Cell::Number(v) => write!(f, "{}", Sig3(v)),
         }
-    }
-}
-
-// Digits, '.', '-', "n/a" and "unbounded" only: nothing to escape.
-impl askama::filters::HtmlSafe for Cell {}
-
-impl askama::FastWritable for Cell {
-    fn write_into<W: fmt::Write + ?Sized>(
-        &self,
-        dest: &mut W,
-        _: &dyn askama::Values,
-    ) -> askama::Result<()> {
-        match *self {
-            Cell::Missing => dest.write_str("-")?,
-            Cell::Count(n) => write!(dest, "{n}")?,
-            Cell::Number(v) => Sig3(v).write_to(dest)?,
-        }
-        Ok(())
     }
 }
 
@@ -156,18 +60,18 @@ fn unit_label(unit: &'static str) -> &'static str {
 /// nothing depends on telling colours apart.
 #[derive(Debug, Clone)]
 pub struct VerdictView {
-    pub id: Plain,
-    pub label: Plain,
-    pub meaning: Plain,
+    pub id: &'static str,
+    pub label: &'static str,
+    pub meaning: &'static str,
     pub icon: &'static str,
 }
 
 impl VerdictView {
     pub fn of(v: Verdict) -> VerdictView {
         VerdictView {
-            id: Plain(v.id()),
-            label: Plain(v.label()),
-            meaning: Plain(v.meaning()),
+            id: v.id(),
+            label: v.label(),
+            meaning: v.meaning(),
             icon: icon(v),
         }
     }
@@ -220,8 +124,8 @@ fn rule_title(id: &'static str) -> &'static str {
 #[derive(Debug, Clone)]
 pub struct FigureRow<'a> {
     pub key: &'static str,
-    pub label: Text<'a>,
-    pub unit: Plain,
+    pub label: &'a str,
+    pub unit: &'static str,
     /// Values at physical limit, best practice, typical.
     pub by_tier: [Cell; 3],
     /// The value of a tier-independent figure.
@@ -230,8 +134,7 @@ pub struct FigureRow<'a> {
 
 /// Groups a finding's figures by key, keeping the order the rule gave.
 pub fn figure_rows(figures: &[Figure]) -> Vec<FigureRow<'_>> {
-    // At most one row a figure; most rows hold three.
-    let mut rows: Vec<FigureRow> = Vec::with_capacity(figures.len());
+    let mut rows: Vec<FigureRow> = Vec::new();
     for f in figures {
         let at = rows.iter().position(|r| r.key == f.key);
         let row = match at {
@@ -239,8 +142,8 @@ pub fn figure_rows(figures: &[Figure]) -> Vec<FigureRow<'_>> {
             None => {
                 rows.push(FigureRow {
                     key: f.key,
-                    label: Text(&f.label),
-                    unit: Plain(unit_label(f.unit)),
+                    label: &f.label,
+                    unit: unit_label(f.unit),
                     by_tier: [Cell::Missing; 3],
                     fixed: None,
                 });
@@ -257,38 +160,38 @@ pub fn figure_rows(figures: &[Figure]) -> Vec<FigureRow<'_>> {
 
 #[derive(Debug, Clone)]
 pub struct SourceLink {
-    pub id: Plain,
-    pub title: Plain,
+    pub id: &'static str,
+    pub title: &'static str,
 }
 
 #[derive(Debug, Clone)]
 pub struct FindingView<'a> {
-    pub rule: Plain,
-    pub rule_title: Plain,
+    pub rule: &'static str,
+    pub rule_title: &'static str,
     pub verdict: VerdictView,
-    pub headline: Text<'a>,
+    pub headline: &'a str,
     pub rows: Vec<FigureRow<'a>>,
-    pub would_take: Text<'a>,
-    pub assumptions: Vec<Text<'a>>,
+    pub would_take: &'a str,
+    pub assumptions: Vec<&'a str>,
     pub sources: Vec<SourceLink>,
 }
 
 impl<'a> FindingView<'a> {
     pub fn of(f: &'a Finding) -> FindingView<'a> {
         FindingView {
-            rule: Plain(f.rule),
-            rule_title: Plain(rule_title(f.rule)),
+            rule: f.rule,
+            rule_title: rule_title(f.rule),
             verdict: VerdictView::of(f.verdict),
-            headline: Text(&f.headline),
+            headline: &f.headline,
             rows: figure_rows(&f.figures),
-            would_take: Text(&f.would_take),
-            assumptions: f.assumptions.iter().map(|a| Text(a)).collect(),
+            would_take: &f.would_take,
+            assumptions: f.assumptions.iter().map(String::as_str).collect(),
             sources: f
                 .sources
                 .iter()
                 .map(|id| SourceLink {
-                    id: Plain(id),
-                    title: Plain(sources::get(id).map(|s| s.title).unwrap_or(id)),
+                    id,
+                    title: sources::get(id).map(|s| s.title).unwrap_or(id),
                 })
                 .collect(),
         }
@@ -304,106 +207,60 @@ pub struct Downloads {
     pub sheet: String,
 }
 
-impl Downloads {
-    /// The sheet for the page's hidden fields.
-    pub fn sheet_text(&self) -> Text<'_> {
-        Text(&self.sheet)
-    }
-}
-
 /// The one-paragraph summary under the overall verdict.
 pub fn summary(report: &Report) -> String {
     if report.findings.is_empty() {
         return "No checks ran on this sheet, so nothing can be said about it yet.".to_string();
     }
     let n = report.findings.len();
-    let counts = Counts(Verdict::ALL.map(|v| {
-        let k = report.findings.iter().filter(|f| f.verdict == v).count();
-        (k, v.label())
-    }));
-    let worst = report
-        .findings
+    // "2 impossible, 1 doubtful": each verdict that occurs with its count,
+    // in the order of `Verdict::ALL`.
+    let counts: Vec<String> = Verdict::ALL
         .iter()
-        .max_by_key(|f| f.verdict.severity())
-        .expect("findings is not empty");
-    let deciding = (report.verdict != Verdict::Consistent).then(|| {
-        (
-            (
-                " The deciding check is ",
-                Lower(rule_title(worst.rule)),
-                ": ",
-            ),
-            worst.headline.as_str(),
-            "",
-        )
-    });
-    say!(
-        n,
-        if n == 1 { " check" } else { " checks" },
-        " ran on this sheet: ",
-        counts,
-        ". The overall verdict is the worst of them, ",
+        .filter_map(|&v| {
+            let k = report.findings.iter().filter(|f| f.verdict == v).count();
+            (k > 0).then(|| format!("{k} {}", v.label()))
+        })
+        .collect();
+    let mut text = format!(
+        "{n} {} ran on this sheet: {}. The overall verdict is the worst of them, {}: the claim {}.",
+        if n == 1 { "check" } else { "checks" },
+        counts.join(", "),
         report.verdict.label(),
-        ": the claim ",
         report.verdict.meaning(),
-        ".",
-        deciding,
-    )
-}
-
-/// "2 impossible, 1 doubtful": each verdict that occurs with its count, in
-/// the order of [`Verdict::ALL`].
-struct Counts([(usize, &'static str); 5]);
-
-impl Piece for Counts {
-    fn size(&self) -> usize {
-        self.0.iter().map(|(_, label)| label.len() + 24).sum()
+    );
+    if report.verdict != Verdict::Consistent {
+        let worst = report
+            .findings
+            .iter()
+            .max_by_key(|f| f.verdict.severity())
+            .expect("findings is not empty");
+        let _ = write!(
+            text,
+            " The deciding check is {}: {}",
+            rule_title(worst.rule).to_lowercase(),
+            worst.headline
+        );
     }
-    fn push_to(&self, out: &mut String) {
-        let mut first = true;
-        for &(k, label) in self.0.iter().filter(|(k, _)| *k > 0) {
-            if !first {
-                out.push_str(", ");
-            }
-            first = false;
-            say_to!(out, k, " ", label);
-        }
-    }
-}
-
-/// A text in lower case, as `str::to_lowercase` writes it.
-struct Lower(&'static str);
-
-impl Piece for Lower {
-    fn size(&self) -> usize {
-        self.0.len()
-    }
-    fn push_to(&self, out: &mut String) {
-        out.extend(self.0.chars().flat_map(char::to_lowercase));
-    }
+    text
 }
 
 #[derive(Template)]
 #[template(path = "verdict.html", whitespace = "minimize")]
 pub struct VerdictPage<'a> {
-    pub title: Text<'a>,
-    pub source: Option<Text<'a>>,
+    pub title: &'a str,
+    pub source: Option<&'a str>,
     pub verdict: VerdictView,
     pub summary: String,
     pub findings: Vec<FindingView<'a>>,
     pub drawings: Vec<Drawing>,
-    pub tiers: [Plain; 3],
-    pub cautions: Vec<Plain>,
-    pub engine: Plain,
+    pub tiers: [&'static str; 3],
+    pub cautions: &'static [&'static str],
+    pub engine: &'static str,
     pub downloads: Downloads,
 }
 
 impl<'a> VerdictPage<'a> {
-    /// The summary for the page, escaped as [`Text`].
-    pub fn summary_text(&self) -> Text<'_> {
-        Text(&self.summary)
-    }
-
     /// The page of a report; `layout` is the rotors' top view the rules gave
     /// with it, if they did ([`rules::run_all_with_layout`]).
     pub fn new(
@@ -413,15 +270,15 @@ impl<'a> VerdictPage<'a> {
         downloads: Downloads,
     ) -> VerdictPage<'a> {
         VerdictPage {
-            title: Text(&report.title),
-            source: claim.source.as_deref().map(Text),
+            title: &report.title,
+            source: claim.source.as_deref(),
             verdict: VerdictView::of(report.verdict),
             summary: summary(report),
             findings: report.findings.iter().map(FindingView::of).collect(),
             drawings: figures::all(report, claim, layout),
-            tiers: Tier::ALL.map(|t| Plain(t.label())),
-            cautions: report.cautions.iter().map(|c| Plain(c)).collect(),
-            engine: Plain(report.engine),
+            tiers: Tier::ALL.map(|t| t.label()),
+            cautions: report.cautions,
+            engine: report.engine,
             downloads,
         }
     }
@@ -510,13 +367,13 @@ impl MethodsPage {
                     key: r.key,
                     label: r.label,
                     unit: unit_label(r.unit),
-                    values: r.values.iter().map(|v| sig3(*v)).collect(),
+                    values: r.values.iter().map(|v| Sig3(*v).to_string()).collect(),
                     basis: r.basis.describe(),
                 })
                 .collect(),
             sources: sources::SOURCES,
             verdicts: Verdict::ALL.iter().map(|v| VerdictView::of(*v)).collect(),
-            hover_share: sig3(tiers::HOVER_FRACTION_MAX.at(Tier::Typical) * 100.0),
+            hover_share: Sig3(tiers::HOVER_FRACTION_MAX.at(Tier::Typical) * 100.0).to_string(),
         }
     }
 }
@@ -570,50 +427,7 @@ mod tests {
             Some("3.04")
         );
         assert_eq!(rows[1].by_tier.map(|c| c.to_string()), ["4", "-", "15"]);
-        assert_eq!(rows[1].unit.0, "no unit");
-    }
-
-    #[test]
-    fn text_is_escaped_as_askama_escapes_it() {
-        // askama's own HTML escaper is the reference: the same entities for
-        // the same five characters, at every offset within a word.
-        use askama::filters::Escaper;
-        for pad in 0..=17 {
-            for c in ['"', '&', '\'', '<', '>', 'a', 'é', '→'] {
-                let text = format!("{}{c}{c}{}", "x".repeat(pad), "y".repeat(18 - pad));
-                let mut expected = String::new();
-                askama::filters::Html
-                    .write_escaped_str(&mut expected, &text)
-                    .unwrap();
-                assert_eq!(Text(&text).to_string(), expected, "{text:?}");
-            }
-        }
-    }
-
-    #[test]
-    fn the_texts_written_as_they_are_hold_nothing_to_escape() {
-        let clean = |t: &str| {
-            assert_eq!(Escapes::Html.clean_run(t.as_bytes()), t.len(), "{t}");
-        };
-        for v in Verdict::ALL {
-            [v.id(), v.label(), v.meaning()].into_iter().for_each(clean);
-        }
-        Tier::ALL.iter().for_each(|t| clean(t.label()));
-        for r in rules::REGISTRY {
-            [r.id, r.title].into_iter().for_each(clean);
-        }
-        for s in sources::SOURCES {
-            [s.id, s.title].into_iter().for_each(clean);
-        }
-        crate::report::CAUTIONS.into_iter().for_each(clean);
-        clean(crate::report::ENGINE);
-        // Units are the rules' own; every one the demo reports use.
-        for d in crate::claim::demo::DEMOS {
-            let report = rules::run_all(&crate::claim::parse_any(d.text).unwrap());
-            for f in &report.findings {
-                f.figures.iter().for_each(|g| clean(unit_label(g.unit)));
-            }
-        }
+        assert_eq!(rows[1].unit, "no unit");
     }
 
     #[test]

@@ -13,7 +13,7 @@ pub async fn spawn_app() -> SocketAddr {
         .await
         .expect("bind 127.0.0.1:0");
     let addr = listener.local_addr().expect("local address");
-    let app = web::app(web::Config::default());
+    let app = web::app(web::AppState::load(web::Config::default()));
     tokio::spawn(async move {
         axum::serve(listener, app).await.expect("server runs");
     });
