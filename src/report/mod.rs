@@ -4,7 +4,6 @@
 //! other tools read the figure keys and verdict ids, so they change only with
 //! a new schema id.
 
-pub mod json;
 pub mod numbers;
 pub mod say;
 mod text;
@@ -203,9 +202,9 @@ impl Report {
         self.findings.iter().find(|f| f.rule == rule)
     }
 
-    /// The report as indented JSON, for the files people open: serde_json's
-    /// own writer from the derived `Serialize` (the API's compact form is
-    /// [`json::compact`]).
+    /// The report as indented JSON, for the files people open, written by
+    /// serde_json from the derived `Serialize` (the API answers with the
+    /// compact form of the same).
     pub fn to_json(&self) -> String {
         // Every figure is finite and every field serializes, so this cannot fail.
         serde_json::to_string_pretty(self).unwrap_or_default()
