@@ -5,7 +5,6 @@
 //! a new schema id.
 
 pub mod numbers;
-pub mod say;
 mod text;
 
 use std::borrow::Cow;
@@ -14,7 +13,7 @@ use serde::Serialize;
 use utoipa::ToSchema;
 
 pub use crate::catalog::tiers::Tier;
-pub use numbers::{push_fixed, sig3, Fixed, Sig3, Tenths};
+pub use numbers::Sig3;
 pub use text::render_text;
 
 pub const SCHEMA: &str = "liftaudit.report/1";

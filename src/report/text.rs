@@ -35,7 +35,7 @@ fn number(v: f64) -> String {
     } else {
         (3 - a.log10().floor() as i32).max(0) as usize
     };
-    super::Fixed(v, digits).to_string()
+    format!("{v:.digits$}")
 }
 
 /// One line of a finding's table: a figure key with its value per tier, or its one value.

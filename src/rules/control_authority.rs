@@ -13,19 +13,18 @@
 
 use std::borrow::Cow;
 use std::cell::OnceCell;
+use std::fmt;
 
 use serde::Serialize;
 use uom::si::f64::{Force, Length};
 use uom::si::{length::millimeter, torque::newton_meter};
 
-use super::common::{self, fixed, per_tier, tiered};
+use super::common::{self, fixed, per_tier, tier_list, tiered};
 use super::thrust_margin;
 use crate::catalog::tiers::{Tier, REACTIVE_TORQUE, THRUST_MISMATCH};
 use crate::claim::{Claim, Layout, Mount, Spin};
 use crate::physics::control::{self, Authority, Axis, Hover, Placement};
-use crate::report::say::{say, say_to, AndList, PerTier, Piece};
-use crate::report::Sig3;
-use crate::report::{Figure, Finding, Verdict};
+use crate::report::{Figure, Finding, Sig3, Verdict};
 
 pub const ID: &str = "control-authority";
 pub const TITLE: &str = "Control authority";
@@ -179,25 +178,28 @@ fn tier_phrase(t: Tier) -> &'static str {
     }
 }
 
+/// The items as a list in words: "a", "a and b", "a, b and c".
+fn and_list<T: fmt::Display>(items: impl IntoIterator<Item = T>) -> String {
+    let items: Vec<String> = items.into_iter().map(|item| item.to_string()).collect();
+    match items.split_last() {
+        Some((last, rest)) if !rest.is_empty() => format!("{} and {last}", rest.join(", ")),
+        Some((last, _)) => last.clone(),
+        None => String::new(),
+    }
+}
+
 /// Axes by their ids: "roll", "roll and yaw", "roll, pitch and yaw".
-fn axes(list: &[Axis]) -> AndList<impl Iterator<Item = &'static str> + Clone + '_> {
-    AndList(list.iter().map(|a| a.id()))
+fn axes(list: &[Axis]) -> String {
+    and_list(list.iter().map(|a| a.id()))
 }
 
 /// Rotor numbers as the report shows them, from 1: "rotor 2", "rotors 1 and 4".
 struct RotorList<'a>(&'a [usize]);
 
-impl Piece for RotorList<'_> {
-    fn size(&self) -> usize {
-        7 + 6 * self.0.len()
-    }
-    fn push_to(&self, out: &mut String) {
-        out.push_str(if self.0.len() > 1 {
-            "rotors "
-        } else {
-            "rotor "
-        });
-        AndList(self.0.iter().map(|i| i + 1)).push_to(out);
+impl fmt::Display for RotorList<'_> {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        let noun = if self.0.len() > 1 { "rotors" } else { "rotor" };
+        write!(f, "{noun} {}", and_list(self.0.iter().map(|i| i + 1)))
     }
 }
 
@@ -217,22 +219,20 @@ fn fix_for_rank(claim: &Claim, a: &Authority) -> &'static str {
 /// Why axes are missing, in words.
 struct WhyRank<'a>(&'a Authority);
 
-impl Piece for WhyRank<'_> {
-    fn size(&self) -> usize {
-        80
-    }
-    fn push_to(&self, out: &mut String) {
+impl fmt::Display for WhyRank<'_> {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
         let a = self.0;
         let unmoved = !a.unmoved.is_empty();
         if unmoved {
-            say_to!(out, "nothing on it makes a ", axes(&a.unmoved), " moment");
+            write!(f, "nothing on it makes a {} moment", axes(&a.unmoved))?;
         }
         if a.tied.len() > 1 {
             if unmoved {
-                out.push_str(", and ");
+                f.write_str(", and ")?;
             }
-            say_to!(out, axes(&a.tied), " share the same inputs");
+            write!(f, "{} share the same inputs", axes(&a.tied))?;
         }
+        Ok(())
     }
 }
 
@@ -267,19 +267,15 @@ fn assess(claim: &Claim, an: &Analysis) -> Finding {
         "1",
     );
     let mut assumptions = Vec::with_capacity(4);
-    assumptions.push(say!(
-        "Rotor positions from the ",
+    assumptions.push(format!(
+        "Rotor positions from the {} layout; body axes x forward, y left, z up; rotors numbered clockwise from the nose seen from above.",
         claim.rotors.layout.map_or("stated", Layout::id),
-        " layout; body axes x forward, y left, z up; rotors numbered clockwise from the nose seen from above."
     ));
-    assumptions.push(say!(
-        "Propeller drag torque per thrust ",
-        PerTier(REACTIVE_TORQUE.values),
-        " of the rotor diameter (",
+    assumptions.push(format!(
+        "Propeller drag torque per thrust {} of the rotor diameter ({} mm); {}.",
+        tier_list(REACTIVE_TORQUE.values),
         Sig3(an.diameter.get::<millimeter>()),
-        " mm); ",
         REACTIVE_TORQUE.basis,
-        "."
     ));
     assumptions.push(
         "Tilt actuators linearised at hover, each rotor carrying an equal share of the weight."
@@ -292,25 +288,21 @@ fn assess(claim: &Claim, an: &Analysis) -> Finding {
         return Finding {
             rule: ID,
             verdict: Verdict::Impossible,
-            headline: say!(
-                "Its actuators cannot command ",
+            headline: format!(
+                "Its actuators cannot command {} independently: {}. Without control of every axis it cannot hold a hover.",
                 axes(&a.lacking),
-                " independently: ",
                 WhyRank(a),
-                ". Without control of every axis it cannot hold a hover."
             ),
             figures: vec![rank],
-            would_take: say!("It would take ", fix_for_rank(claim, a), "."),
+            would_take: format!("It would take {}.", fix_for_rank(claim, a)),
             assumptions,
             sources,
         };
     }
     let Some(thrust) = an.thrust else {
         let mut f = Finding::not_assessed(ID, NEEDS_THRUST);
-        f.headline = say!(
-            "Its actuators can command all four axes, but the margin is not assessed: the sheet does not give ",
-            NEEDS_THRUST,
-            "."
+        f.headline = format!(
+            "Its actuators can command all four axes, but the margin is not assessed: the sheet does not give {NEEDS_THRUST}."
         );
         f.figures.push(rank);
         return f;
@@ -333,10 +325,8 @@ fn assess(claim: &Claim, an: &Analysis) -> Finding {
     let table = an.failures(searched);
     if claimed > searched || (claimed > 0 && table.is_none()) {
         let mut f = Finding::not_assessed(ID, "a craft small enough to search every combination of lost rotors (up to four lost, about 16 rotors)");
-        f.headline = say!(
-            "Not assessed: the claim to survive ",
-            claimed,
-            " lost rotors needs more combinations searched than this screen does."
+        f.headline = format!(
+            "Not assessed: the claim to survive {claimed} lost rotors needs more combinations searched than this screen does."
         );
         f.would_take = SEARCH_LIMIT.to_string();
         f.figures.push(rank);
@@ -379,14 +369,8 @@ fn assess(claim: &Claim, an: &Analysis) -> Finding {
         for t in Tier::ALL {
             if let Some((s, v)) = worst(size, t) {
                 let label = match size {
-                    1 => say!("ACAI with the worst rotor lost (", RotorList(s), ")"),
-                    _ => say!(
-                        "ACAI with the worst ",
-                        size,
-                        " rotors lost (",
-                        RotorList(s),
-                        ")"
-                    ),
+                    1 => format!("ACAI with the worst rotor lost ({})", RotorList(s)),
+                    _ => format!("ACAI with the worst {size} rotors lost ({})", RotorList(s)),
                 };
                 figures.push(tiered(key, label, t, v[t as usize], "N, N m"));
             }
@@ -401,61 +385,47 @@ fn assess(claim: &Claim, an: &Analysis) -> Finding {
     let intact_fails = |t: Tier| intact[t as usize] <= an.margin(t, &[]);
     let (headline, would_take) = match fails_at {
         Some(t) if intact_fails(t) && !lifts(t) => (
-            say!(
-                "Its rotors cannot lift it even at full thrust (",
+            format!(
+                "Its rotors cannot lift it even at full thrust ({}), so nothing is left to steer with (see thrust-margin).",
                 tier_phrase(t),
-                "), so nothing is left to steer with (see thrust-margin)."
             ),
             "It would take more thrust per rotor or more rotors (see thrust-margin).".to_string(),
         ),
         Some(Tier::Typical) if intact[Tier::Typical as usize] <= 0.0 => (
-            say!(
-                "With typical rotors it cannot make every moment a hover needs (ACAI ",
+            format!(
+                "With typical rotors it cannot make every moment a hover needs (ACAI {}); only better-than-typical ones give it control.",
                 at(Tier::Typical),
-                "); only better-than-typical ones give it control."
             ),
             "It would take rotors with more thrust to spare (hovering well below full thrust), or longer arms.".to_string(),
         ),
         Some(Tier::Typical) if intact_fails(Tier::Typical) => (
-            say!(
-                "Its control margin in hover (ACAI ",
+            format!(
+                "Its control margin in hover (ACAI {} with typical rotors) is smaller than the {} N m of a typical {} % thrust mismatch between rotors: a worn propeller or a gust could tip it.",
                 at(Tier::Typical),
-                " with typical rotors) is smaller than the ",
                 Sig3(an.margin(Tier::Typical, &[])),
-                " N m of a typical ",
                 (100.0 * THRUST_MISMATCH.at(Tier::Typical)).round(),
-                " % thrust mismatch between rotors: a worn propeller or a gust could tip it."
             ),
             "It would take rotors with more thrust to spare (hovering well below full thrust), or longer arms.".to_string(),
         ),
         Some(t) if intact_fails(t) => (
-            say!(
-                "Even at full thrust from ",
+            format!(
+                "Even at full thrust from {} rotors it cannot make every moment a hover needs (ACAI {} {}).",
                 if t == Tier::PhysicalLimit { "perfect" } else { "the best" },
-                " rotors it cannot make every moment a hover needs (ACAI ",
                 at(t),
-                " ",
                 tier_phrase(t),
-                ")."
             ),
             "It would take rotors with more thrust to spare, longer arms, or rotors of both spin directions spread around the centre of mass.".to_string(),
         ),
         Some(t) => {
             let (set, v) = first_bad_set(t).map_or((&[][..], 0.0), |(s, v)| (&s[..], v[t as usize]));
             (
-                say!(
-                    "It is said to keep flying after losing ",
-                    claimed,
-                    if claimed > 1 { " rotors" } else { " rotor" },
-                    ", but with ",
+                format!(
+                    "It is said to keep flying after losing {claimed} {}, but with {} lost the rest {} (ACAI {} {}).",
+                    if claimed > 1 { "rotors" } else { "rotor" },
                     RotorList(set),
-                    " lost the rest ",
                     if v <= 0.0 { "cannot make every moment a hover needs" } else { "have too little control to spare" },
-                    " (ACAI ",
                     Sig3(v),
-                    " ",
                     tier_phrase(t),
-                    ")."
                 ),
                 "It would take six or more rotors with thrust to spare and a failure-tolerant spin pattern (for six, P P N N P N: Du et al. 2015), or no claim of rotor-failure tolerance.".to_string(),
             )
@@ -464,30 +434,25 @@ fn assess(claim: &Claim, an: &Analysis) -> Finding {
             let single = worst(1, Tier::Typical);
             let after: Cow<str> = match (claimed, single) {
                 (0, Some((s, v))) if v[2] <= 0.0 => {
-                    say!(" Losing ", RotorList(s), " would leave it without control.").into()
+                    format!(" Losing {} would leave it without control.", RotorList(s)).into()
                 }
                 (0, Some(_)) => " It could keep flying after losing any one rotor.".into(),
-                (k, _) if k > 0 => say!(" It keeps control after losing any ", k, ".").into(),
+                (k, _) if k > 0 => format!(" It keeps control after losing any {k}.").into(),
                 _ => "".into(),
             };
             (
-                say!(
-                    "Its rotors can command thrust, roll, pitch and yaw with margin (ACAI ",
+                format!(
+                    "Its rotors can command thrust, roll, pitch and yaw with margin (ACAI {} with typical rotors, against {} N m of a typical thrust mismatch).{after}",
                     at(Tier::Typical),
-                    " with typical rotors, against ",
                     Sig3(an.margin(Tier::Typical, &[])),
-                    " N m of a typical thrust mismatch).",
-                    after
                 ),
                 "Nothing: its actuators hold a hover with control to spare.".to_string(),
             )
         }
     };
-    assumptions.push(say!(
-        "Rotor thrust between zero and the thrust-margin estimate at each tier; a lost rotor gives none. Failure sets searched: up to ",
-        searched,
-        if searched == 1 { " rotor" } else { " rotors" },
-        " lost at once."
+    assumptions.push(format!(
+        "Rotor thrust between zero and the thrust-margin estimate at each tier; a lost rotor gives none. Failure sets searched: up to {searched} {} lost at once.",
+        if searched == 1 { "rotor" } else { "rotors" },
     ));
     Finding {
         rule: ID,

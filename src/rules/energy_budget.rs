@@ -16,16 +16,14 @@ use uom::si::{
     mass::kilogram, power::watt, time::minute,
 };
 
-use super::common::{self, fixed, per_tier};
+use super::common::{self, fixed, per_tier, tier_list};
 use super::thrust_margin::{self, Lift};
 use crate::catalog::tiers::{self, Tier, AVIONICS_POWER, DEPTH_OF_DISCHARGE};
 use crate::catalog::{self, Chemistry, Drive};
 use crate::claim::{Claim, Layout};
 use crate::physics::atmosphere::Air;
 use crate::physics::{battery, rotor};
-use crate::report::say::{say, PerTier};
-use crate::report::Finding;
-use crate::report::Sig3;
+use crate::report::{Finding, Sig3};
 
 pub const ID: &str = "energy-budget";
 pub const TITLE: &str = "Energy for the stated flight time";
@@ -202,52 +200,40 @@ pub fn check(claim: &Claim) -> Finding {
 
     let failed_at = common::first_failure(|t| time_ok(t) && specific_ok(t) && current_ok(t));
     let headline = match failed_at {
-        Some(t) if !specific_ok(t) => say!(
-            "The battery is said to hold ",
+        Some(t) if !specific_ok(t) => format!(
+            "The battery is said to hold {} Wh/kg; {} cells reach at most about {} Wh/kg {}.",
             Sig3(pack_specific.unwrap_or(0.0)),
-            " Wh/kg; ",
             chem.label,
-            " cells reach at most about ",
             Sig3(specific_energy(chem, t)),
-            " Wh/kg ",
             match t {
                 Tier::PhysicalLimit => "even in theory",
                 Tier::BestPractice => "at the very best",
                 Tier::Typical => "in ordinary packs",
             },
-            "."
         ),
-        Some(t) if !time_ok(t) => say!(
+        Some(t) if !time_ok(t) => format!(
+            "{} this battery lasts about {} min in hover; the claim is {} min.",
             match t {
                 Tier::PhysicalLimit => "Even with perfect rotors and motors,",
                 Tier::BestPractice => "With the best hardware of its class,",
                 Tier::Typical => "With typical parts,",
             },
-            " this battery lasts about ",
             Sig3(minutes(endurance[t as usize])),
-            " min in hover; the claim is ",
             Sig3(claim.claim.flight_time.map_or(0.0, minutes)),
-            " min."
         ),
-        Some(t) => say!(
-            "Hovering draws ",
+        Some(t) => format!(
+            "Hovering draws {} C from the battery, above its {} C rating ({}).",
             Sig3(c_rate[t as usize]),
-            " C from the battery, above its ",
             Sig3(rating),
-            " C rating (",
             t.label(),
-            ")."
         ),
-        None => say!(
-            "The battery gives about ",
+        None => format!(
+            "The battery gives about {} min of hover with typical parts{}.",
             Sig3(minutes(endurance[Tier::Typical as usize])),
-            " min of hover with typical parts",
-            claim.claim.flight_time.map(|ft| (
-                ", enough for the claimed ",
-                Sig3(minutes(ft)),
-                " min"
+            claim.claim.flight_time.map_or(String::new(), |ft| format!(
+                ", enough for the claimed {} min",
+                Sig3(minutes(ft))
             )),
-            "."
         ),
     };
 
@@ -255,30 +241,18 @@ pub fn check(claim: &Claim) -> Finding {
         claim, &frame, chem, airframe, pack_mass, pack_v, &time_ok, ceiling,
     );
     let mut assumptions = Vec::with_capacity(9);
-    assumptions.push(say!(
-        bat.cells,
-        " cell(s) of ",
-        chem.label,
-        " at ",
-        chem.nominal_v,
-        " V nominal; ",
-        chem.basis,
-        "."
+    assumptions.push(format!(
+        "{} cell(s) of {} at {} V nominal; {}.",
+        bat.cells, chem.label, chem.nominal_v, chem.basis,
     ));
-    assumptions.push(say!(
-        "Figure of merit ",
-        PerTier(Tier::ALL.map(|t| tiers::figure_of_merit(t, diameter))),
-        " for a ",
+    assumptions.push(format!(
+        "Figure of merit {} for a {} mm rotor; drive efficiency {} ({}); usable capacity {}; avionics {} W (physical limit / best practice / typical).",
+        tier_list(Tier::ALL.map(|t| tiers::figure_of_merit(t, diameter))),
         Sig3(diameter.get::<uom::si::length::millimeter>()),
-        " mm rotor; drive efficiency ",
-        PerTier(Tier::ALL.map(|t| Sig3(tiers::drive_efficiency(t, frame.drive)))),
-        " (",
+        tier_list(Tier::ALL.map(|t| Sig3(tiers::drive_efficiency(t, frame.drive)))),
         frame.drive.id(),
-        "); usable capacity ",
-        PerTier(DEPTH_OF_DISCHARGE.values),
-        "; avionics ",
-        PerTier(AVIONICS_POWER.values),
-        " W (physical limit / best practice / typical)."
+        tier_list(DEPTH_OF_DISCHARGE.values),
+        tier_list(AVIONICS_POWER.values),
     ));
     assumptions.push(
         "Hover only, in still air: climbing, manoeuvring and wind all cost more.".to_string(),
@@ -293,17 +267,14 @@ pub fn check(claim: &Claim) -> Finding {
         assumptions.push("Drive taken as brushless (rotors.drive not given).".to_string());
     }
     if bat.mass.is_none() {
-        assumptions.push(say!(
-            "Battery mass not given: taken as ",
+        assumptions.push(format!(
+            "Battery mass not given: taken as {} g from the chemistry's ordinary specific energy.",
             Sig3(pack_mass.get::<gram>()),
-            " g from the chemistry's ordinary specific energy."
         ));
     }
     if bat.max_discharge.is_none() {
-        assumptions.push(say!(
-            "Discharge rating not given: ",
-            rating,
-            " C, ordinary for the chemistry."
+        assumptions.push(format!(
+            "Discharge rating not given: {rating} C, ordinary for the chemistry."
         ));
     }
     if claim.claim.flight_time.is_none() {
@@ -352,14 +323,11 @@ fn would_take(
     };
     let e = specific_energy(chem, Tier::Typical);
     if times[Tier::Typical as usize] < ft {
-        return say!(
-            "No ",
+        return format!(
+            "No {} battery makes it with typical parts: the longest hover for this airframe is about {} min, with a {} g battery. Lighter parts or larger rotors are needed.",
             chem.id,
-            " battery makes it with typical parts: the longest hover for this airframe is about ",
             Sig3(times[Tier::Typical as usize].get::<minute>()),
-            " min, with a ",
             Sig3(best_mass.get::<gram>()),
-            " g battery. Lighter parts or larger rotors are needed."
         );
     }
     // Endurance rises with battery mass up to twice the airframe: bisect on [current, 2 m0].
@@ -379,22 +347,18 @@ fn would_take(
     let short_of_thrust = thrust_margin::estimate(claim, &frame.air)
         .map(|est| est.available[Tier::Typical as usize] * (f64::from(claim.rotors.count) * 0.7))
         .filter(|hover_limit| take_off * frame.air.gravity > *hover_limit);
-    say!(
-        "A battery of about ",
+    let short_of_thrust = short_of_thrust.map_or(String::new(), |hover_limit| {
+        format!(
+            "; the rotors then need more thrust too: they hover at most {} at 70 % of typical thrust",
+            Lift(hover_limit)
+        )
+    });
+    format!(
+        "A battery of about {} mAh at this voltage ({} g of ordinary {} cells, {} g take-off mass){short_of_thrust}.",
         Sig3(capacity.get::<milliampere_hour>()),
-        " mAh at this voltage (",
         Sig3(hi.get::<gram>()),
-        " g of ordinary ",
         chem.id,
-        " cells, ",
         Sig3(take_off.get::<gram>()),
-        " g take-off mass)",
-        short_of_thrust.map(|hover_limit| (
-            "; the rotors then need more thrust too: they hover at most ",
-            Lift(hover_limit),
-            " at 70 % of typical thrust"
-        )),
-        "."
     )
 }
 

@@ -15,13 +15,11 @@ use uom::si::{
     moment_of_inertia::kilogram_square_meter, time::second,
 };
 
-use super::common::{self, fixed, per_tier};
+use super::common::{self, fixed, per_tier, tier_list};
 use crate::catalog::tiers::{Tier, ACCEL_BIAS, GYRO_DRIFT, LEVEL_ERROR, THRUST_MISMATCH};
 use crate::claim::{Claim, PositionSensor};
 use crate::physics::{body, control};
-use crate::report::say::{say, Joined, PerTier};
-use crate::report::Sig3;
-use crate::report::{Figure, Finding, Verdict};
+use crate::report::{Figure, Finding, Sig3, Verdict};
 
 pub const ID: &str = "sensing";
 pub const TITLE: &str = "Sensing and stabilisation";
@@ -129,22 +127,18 @@ pub fn check(claim: &Claim) -> Finding {
     let mut figures: Vec<Figure> = Vec::with_capacity(14);
     let mut parts: Vec<Part> = Vec::with_capacity(4);
     let mut assumptions = Vec::with_capacity(7);
-    assumptions.push(say!(
-        "Thrust mismatch ",
-        PerTier(THRUST_MISMATCH.values),
-        " of one rotor's hover thrust (physical limit / best practice / typical); ",
+    assumptions.push(format!(
+        "Thrust mismatch {} of one rotor's hover thrust (physical limit / best practice / typical); {}.",
+        tier_list(THRUST_MISMATCH.values),
         THRUST_MISMATCH.basis,
-        "."
     ));
 
     // Time to tip from a thrust mismatch, from rest, at constant moment.
     let tip = tipping(claim).map(|g| {
-        assumptions.push(say!(
-            "Moment of inertia of ",
+        assumptions.push(format!(
+            "Moment of inertia of {}; lever of the farthest rotor {} mm.",
             g.shape,
-            "; lever of the farthest rotor ",
             Sig3(g.lever.get::<uom::si::length::millimeter>()),
-            " mm."
         ));
         figures.push(fixed(
             "moment_of_inertia",
@@ -192,12 +186,9 @@ pub fn check(claim: &Claim) -> Finding {
                 let v = common::verdict_of(|t| t == Tier::PhysicalLimit || tip[t as usize] >= catch);
                 parts.push(Part {
                     verdict: v,
-                    says: say!(
-                        "With no gyroscope the pilot must catch every tip by hand: it tips 30 deg in about ",
+                    says: format!(
+                        "With no gyroscope the pilot must catch every tip by hand: it tips 30 deg in about {} s, against a reaction time of {REACTION_S} s.",
                         Sig3(tip[Tier::Typical as usize].get::<second>()),
-                        " s, against a reaction time of ",
-                        REACTION_S,
-                        " s."
                     )
                     .into(),
                     fix: (v != Verdict::Consistent).then_some("a rate gyroscope in a stabilising loop"),
@@ -230,10 +221,9 @@ pub fn check(claim: &Claim) -> Finding {
                 let v = judge_drift(drift, hold);
                 parts.push(Part {
                     verdict: v,
-                    says: say!(
-                        "Hands-free with a gyroscope but no accelerometer, its idea of level drifts 5 deg in about ",
+                    says: format!(
+                        "Hands-free with a gyroscope but no accelerometer, its idea of level drifts 5 deg in about {} s with typical parts.",
                         Sig3(drift[Tier::Typical as usize].get::<second>()),
-                        " s with typical parts."
                     )
                     .into(),
                     fix: (v != Verdict::Consistent).then_some("an accelerometer to keep the level reference"),
@@ -270,10 +260,9 @@ pub fn check(claim: &Claim) -> Finding {
             let v = judge_drift(drift, hold);
             parts.push(Part {
                 verdict: v,
-                says: say!(
-                    "It is said to hold its height with no height sensor; the accelerometer alone lets height drift 1 m in about ",
+                says: format!(
+                    "It is said to hold its height with no height sensor; the accelerometer alone lets height drift 1 m in about {} s.",
                     Sig3(drift[Tier::Typical as usize].get::<second>()),
-                    " s."
                 )
                 .into(),
                 fix: None,
@@ -316,28 +305,19 @@ pub fn check(claim: &Claim) -> Finding {
         };
         parts.push(Part {
             verdict: v,
-            says: say!(
-                "It is said to stay in place with no position sensor; a level error of ",
+            says: format!(
+                "It is said to stay in place with no position sensor; a level error of {} deg slides it 1 m in about {} s.",
                 LEVEL_ERROR.at(Tier::Typical),
-                " deg slides it 1 m in about ",
                 Sig3(drift[Tier::Typical as usize].get::<second>()),
-                " s."
             )
             .into(),
             fix: (v != Verdict::Consistent).then_some("a position sensor: optical flow with a range sensor indoors, satellite navigation outdoors"),
         });
     }
     if c.altitude_hold || c.position_hold || c.hands_free {
-        assumptions.push(say!(
-            "Holds are judged ",
-            hold_needs,
-            ": ",
+        assumptions.push(format!(
+            "Holds are judged {hold_needs}: {} s; a drift of {DRIFT_THAT_MATTERS_M} m or {ATTITUDE_ERROR_DEG} deg matters (common practice).",
             Sig3(hold.get::<second>()),
-            " s; a drift of ",
-            DRIFT_THAT_MATTERS_M,
-            " m or ",
-            ATTITUDE_ERROR_DEG,
-            " deg matters (common practice)."
         ));
     }
 
@@ -347,7 +327,7 @@ pub fn check(claim: &Claim) -> Finding {
     let would_take = if fixes.is_empty() {
         "Nothing more for sensing.".to_string()
     } else {
-        say!("Add ", Joined(&fixes, "; "), ".")
+        format!("Add {}.", fixes.join("; "))
     };
     // The worst part is the headline; the others go with the assumptions.
     let worst = parts.iter().position(|p| p.verdict == verdict);

@@ -21,9 +21,9 @@ use crate::catalog::{self, Drive, MotorClass};
 use crate::claim::{Claim, Layout};
 use crate::physics::atmosphere::{self, Air};
 use crate::physics::rotor;
-use crate::report::say::{push_sig3, say, say_to, Piece};
-use crate::report::{Finding, Verdict};
-use crate::report::{Fixed, Sig3};
+use std::fmt::{self, Write as _};
+
+use crate::report::{Finding, Sig3, Verdict};
 
 pub const ID: &str = "thrust-margin";
 pub const TITLE: &str = "Thrust and control margin";
@@ -140,18 +140,13 @@ pub fn estimate(claim: &Claim, air: &Air) -> Option<Estimate> {
 #[derive(Debug, Clone, Copy)]
 pub struct Lift(pub Force);
 
-impl Piece for Lift {
-    fn size(&self) -> usize {
-        13
-    }
-    fn push_to(&self, out: &mut String) {
+impl fmt::Display for Lift {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
         let g = self.0.get::<gram_force>();
         if g.abs() >= 1000.0 {
-            push_sig3(out, g / 1000.0);
-            out.push_str(" kg");
+            write!(f, "{} kg", Sig3(g / 1000.0))
         } else {
-            push_sig3(out, g);
-            out.push_str(" g");
+            write!(f, "{} g", Sig3(g))
         }
     }
 }
@@ -287,55 +282,31 @@ fn headline(
             Tier::PhysicalLimit => "more than momentum theory allows even for a perfect rotor",
             _ => "more than the best real rotors achieve",
         };
-        return say!(
-            "The stated ",
+        return format!(
+            "The stated {} per rotor is {what} on {} W and a {} mm rotor (at most {}).",
             Lift(s),
-            " per rotor is ",
-            what,
-            " on ",
             Sig3(p.get::<watt>()),
-            " W and a ",
             Sig3(d.get::<millimeter>()),
-            " mm rotor (at most ",
             Lift(b[tier as usize]),
-            ")."
         );
     }
     let percent = Sig3(100.0 * fraction(Tier::Typical));
     match verdict {
-        Verdict::Impossible => say!(
-            "Even perfect rotors of this size and power lift at most ",
+        Verdict::Impossible => format!(
+            "Even perfect rotors of this size and power lift at most {} in all; the craft weighs {weighs}.",
             Lift(total(Tier::PhysicalLimit)),
-            " in all; the craft weighs ",
-            weighs,
-            "."
         ),
-        Verdict::Implausible => say!(
-            "Only better-than-best hardware would lift it: the best ",
-            n,
-            " rotors of this kind give ",
+        Verdict::Implausible => format!(
+            "Only better-than-best hardware would lift it: the best {n} rotors of this kind give {} against a weight of {weighs}.",
             Lift(total(Tier::BestPractice)),
-            " against a weight of ",
-            weighs,
-            "."
         ),
-        Verdict::Doubtful => say!(
-            "It would hover at ",
-            percent,
-            " % of typical maximum thrust (",
+        Verdict::Doubtful => format!(
+            "It would hover at {percent} % of typical maximum thrust ({} in all for {weighs}); common practice keeps hover under 70 %.",
             Lift(total(Tier::Typical)),
-            " in all for ",
-            weighs,
-            "); common practice keeps hover under 70 %."
         ),
-        _ => say!(
-            "Hovers at ",
-            percent,
-            " % of typical maximum thrust (",
+        _ => format!(
+            "Hovers at {percent} % of typical maximum thrust ({} in all for {weighs}), inside the 70 % of common practice.",
             Lift(total(Tier::Typical)),
-            " in all for ",
-            weighs,
-            "), inside the 70 % of common practice."
         ),
     }
 }
@@ -356,40 +327,26 @@ fn would_take(claim: &Claim, est: &Estimate, w: Force, air: &Air) -> String {
     let lightest = typical * (f64::from(n) * SIZING_FRACTION);
     let hover_ok = w <= lightest;
     if hover_ok {
-        return say!(
-            "Nothing: ",
-            n,
-            " rotors of this kind hover it at 70 % of typical thrust up to a weight of ",
+        return format!(
+            "Nothing: {n} rotors of this kind hover it at 70 % of typical thrust up to a weight of {}.",
             Lift(lightest),
-            "."
         );
     }
-    let mut line = say!(
-        needed,
-        " rotors of this kind instead of ",
-        n,
-        ", or a craft of at most ",
+    let mut line = format!(
+        "{needed} rotors of this kind instead of {n}, or a craft of at most {} on the {n} it has",
         Lift(lightest),
-        " on the ",
-        n,
-        " it has"
     );
     let class = catalog::MOTORS
         .iter()
         .map(|c| (c, class_typical(claim, c, air)))
         .find(|&(_, typical)| typical * (f64::from(n) * SIZING_FRACTION) >= w);
     if let Some((c, typical)) = class {
-        say_to!(
-            &mut line,
-            ", or ",
-            n,
-            " motors of class ",
+        let _ = write!(
+            line,
+            ", or {n} motors of class {} ({}), about {} of thrust in all",
             c.id,
-            " (",
             c.label,
-            "), about ",
             Lift(typical * f64::from(n)),
-            " of thrust in all"
         );
     }
     line.push('.');
@@ -398,41 +355,27 @@ fn would_take(claim: &Claim, est: &Estimate, w: Force, air: &Air) -> String {
 
 fn assumptions(claim: &Claim, est: &Estimate, air: &Air) -> Vec<String> {
     let mut out = Vec::with_capacity(7);
-    out.push(say!(
-        "Air density ",
-        Fixed(air.density.get::<kilogram_per_cubic_meter>(), 4),
-        " kg/m^3 and gravity ",
-        Fixed(air.gravity.value, 4),
-        " m/s^2 (ISA at ",
+    out.push(format!(
+        "Air density {:.4} kg/m^3 and gravity {:.4} m/s^2 (ISA at {} m).",
+        air.density.get::<kilogram_per_cubic_meter>(),
+        air.gravity.value,
         Sig3(claim.conditions.altitude.value),
-        " m)."
     ));
     match est.basis {
         Basis::Stated(t) => {
             const TAKEN: &str = "; a stated thrust is taken at every tier, as static thrust at sea level scaled by air density.";
             out.push(if claim.rotors.max_thrust_from_mass {
-                say!(
-                    "rotors.max_thrust was written as a mass and read as gram-force (",
+                format!(
+                    "rotors.max_thrust was written as a mass and read as gram-force ({} N){TAKEN}",
                     Sig3(t.get::<newton>()),
-                    " N)",
-                    TAKEN
                 )
             } else {
-                say!("rotors.max_thrust is taken as stated", TAKEN)
+                format!("rotors.max_thrust is taken as stated{TAKEN}")
             });
         }
-        Basis::Class(c) => out.push(say!(
-            "Thrust per rotor from motor class ",
-            c.id,
-            " (",
-            c.label,
-            "): ",
-            c.thrust_gf.0,
-            "-",
-            c.thrust_gf.1,
-            " g at sea level, capped by the momentum bound; ",
-            c.basis,
-            "."
+        Basis::Class(c) => out.push(format!(
+            "Thrust per rotor from motor class {} ({}): {}-{} g at sea level, capped by the momentum bound; {}.",
+            c.id, c.label, c.thrust_gf.0, c.thrust_gf.1, c.basis,
         )),
         Basis::Power => out.push(
             "Thrust per rotor from the momentum bound for the stated power and diameter alone."
@@ -441,19 +384,17 @@ fn assumptions(claim: &Claim, est: &Estimate, air: &Air) -> Vec<String> {
     }
     if let Some((d, stated)) = est.diameter {
         if !stated {
-            out.push(say!(
-                "Rotor diameter ",
+            out.push(format!(
+                "Rotor diameter {} mm, the largest usual for the motor class (rotors.diameter not given).",
                 Sig3(d.get::<millimeter>()),
-                " mm, the largest usual for the motor class (rotors.diameter not given)."
             ));
         }
     }
     if let Some((p, stated)) = est.power {
         if !stated {
-            out.push(say!(
-                "Electrical power ",
+            out.push(format!(
+                "Electrical power {} W per motor from the motor class (rotors.max_power not given).",
                 Sig3(p.get::<watt>()),
-                " W per motor from the motor class (rotors.max_power not given)."
             ));
         }
     }
@@ -463,20 +404,16 @@ fn assumptions(claim: &Claim, est: &Estimate, air: &Air) -> Vec<String> {
     if let Some(total) = claim.craft.parts_total {
         let off = (total / claim.craft.mass).value - 1.0;
         if off.abs() <= 0.05 {
-            out.push(say!(
-                "The parts list adds up to ",
+            out.push(format!(
+                "The parts list adds up to {} g, within 5 % of the mass used.",
                 Sig3(total.get::<gram>()),
-                " g, within 5 % of the mass used."
             ));
         } else {
-            out.push(say!(
-                "The parts list adds up to ",
+            out.push(format!(
+                "The parts list adds up to {} g, {} % {} the stated mass: the stated mass is used.",
                 Sig3(total.get::<gram>()),
-                " g, ",
                 Sig3(100.0 * off.abs()),
-                " % ",
                 if off > 0.0 { "above" } else { "below" },
-                " the stated mass: the stated mass is used."
             ));
         }
     }

@@ -17,9 +17,9 @@ use super::thrust_margin::{self, Lift};
 use crate::catalog::tiers::{Tier, BODY_DRAG};
 use crate::claim::{BoxSize, Claim, Mount};
 use crate::physics::{body, drag};
-use crate::report::say::{say, say_to, Or};
-use crate::report::Sig3;
-use crate::report::{Finding, Verdict};
+use std::fmt::Write as _;
+
+use crate::report::{Finding, Sig3, Verdict};
 
 pub const ID: &str = "tilt-equilibrium";
 pub const TITLE: &str = "Holding the claimed attitude";
@@ -140,55 +140,32 @@ pub fn check(claim: &Claim) -> Finding {
     let deg = Sig3(tilt.get::<degree>());
     let wind = Sig3(claim.conditions.wind.get::<meter_per_second>());
     let headline = match verdict {
-        _ if wind_unknown && verdict == Verdict::NotAssessed => say!(
-            "A ",
-            deg,
-            " deg tilt leaves ",
+        _ if wind_unknown && verdict == Verdict::NotAssessed => format!(
+            "A {deg} deg tilt leaves {} m/s^2 sideways; whether the stated wind holds it needs the body size (craft.size).",
             Sig3(accel.get::<meter_per_second_squared>()),
-            " m/s^2 sideways; whether the stated wind holds it needs the body size (craft.size)."
         ),
-        Verdict::Impossible if still_air && !balanced => say!(
-            "Tilted ",
-            deg,
-            " deg with rotors fixed to the body, it would accelerate sideways at ",
+        Verdict::Impossible if still_air && !balanced => format!(
+            "Tilted {deg} deg with rotors fixed to the body, it would accelerate sideways at {} m/s^2: it cannot hover in still air.",
             Sig3(accel.get::<meter_per_second_squared>()),
-            " m/s^2: it cannot hover in still air."
         ),
-        Verdict::Consistent if balanced && tilt.get::<degree>() > 0.0 => say!(
-            "Rotors that tilt back ",
+        Verdict::Consistent if balanced && tilt.get::<degree>() > 0.0 => format!(
+            "Rotors that tilt back {} deg keep the thrust upright, so a {deg} deg body tilt can be held.",
             Sig3(compensation.get::<degree>()),
-            " deg keep the thrust upright, so a ",
-            deg,
-            " deg body tilt can be held."
         ),
         Verdict::Consistent if balanced => "A level hover leaves no sideways force.".to_string(),
-        Verdict::Consistent => say!(
-            "The stated ",
-            wind,
-            " m/s wind can hold a ",
-            deg,
-            " deg tilt with typical drag."
-        ),
-        _ if !(0..3).all(|i| thrust_ok(Tier::ALL[i])) => say!(
-            "Holding the weight at ",
-            deg,
-            " deg takes ",
+        Verdict::Consistent => {
+            format!("The stated {wind} m/s wind can hold a {deg} deg tilt with typical drag.")
+        }
+        _ if !(0..3).all(|i| thrust_ok(Tier::ALL[i])) => format!(
+            "Holding the weight at {deg} deg takes {} of thrust, more than the rotors give at the {} tier.",
             Lift(thrust_needed),
-            " of thrust, more than the rotors give at the ",
             common::first_failure(thrust_ok).map_or("", |t| t.label()),
-            " tier."
         ),
-        _ => say!(
-            "The stated wind of ",
-            wind,
-            " m/s is short of the ",
-            Or(
-                headwind.map(|v| Sig3(v[Tier::Typical as usize].get::<meter_per_second>())),
-                "?"
-            ),
-            " m/s whose drag would hold a ",
-            deg,
-            " deg tilt."
+        _ => format!(
+            "The stated wind of {wind} m/s is short of the {} m/s whose drag would hold a {deg} deg tilt.",
+            headwind.map_or("?".to_string(), |v| {
+                Sig3(v[Tier::Typical as usize].get::<meter_per_second>()).to_string()
+            }),
         ),
     };
 
@@ -197,38 +174,29 @@ pub fn check(claim: &Claim) -> Finding {
     } else {
         let mut ways = String::from("Any of: ");
         if let Some(v) = headwind {
-            say_to!(
-                &mut ways,
-                "a steady headwind of about ",
+            let _ = write!(
+                ways,
+                "a steady headwind of about {} m/s (typical drag; {} m/s with the most drag a body can have); ",
                 Sig3(v[Tier::Typical as usize].get::<meter_per_second>()),
-                " m/s (typical drag; ",
                 Sig3(v[Tier::PhysicalLimit as usize].get::<meter_per_second>()),
-                " m/s with the most drag a body can have); "
             );
         }
-        say_to!(
-            &mut ways,
-            "a tether or support taking ",
+        let _ = write!(
+            ways,
+            "a tether or support taking {} sideways; rotors that tilt back by {deg} deg relative to the body.",
             Lift(sideways),
-            " sideways; rotors that tilt back by ",
-            deg,
-            " deg relative to the body."
         );
         ways
     };
 
     let mut assumptions = Vec::with_capacity(4);
     assumptions.push("Steady hover: no climb, no turn; thrust along the rotor axis.".to_string());
-    assumptions.push(say!(
-        "Drag coefficient ",
+    assumptions.push(format!(
+        "Drag coefficient {} (physical limit), {} (best practice), {} (typical); {}.",
         BODY_DRAG.at(Tier::PhysicalLimit),
-        " (physical limit), ",
         BODY_DRAG.at(Tier::BestPractice),
-        " (best practice), ",
         BODY_DRAG.at(Tier::Typical),
-        " (typical); ",
         BODY_DRAG.basis,
-        "."
     ));
     if claim.craft.size.is_some() {
         assumptions.push(

@@ -14,8 +14,9 @@ use crate::report::{Finding, Report};
 use crate::rules::control_authority::{self, LayoutView};
 
 use super::layout;
-use crate::report::say::{self, say, say_to, Joined, Piece};
-use crate::report::{Fixed, Sig3, Tenths};
+use std::fmt::{self, Write as _};
+
+use crate::report::Sig3;
 use crate::scan::Escapes;
 
 /// One drawing for the page, or the reason it is not drawn.
@@ -40,7 +41,7 @@ impl Drawing {
         Drawing {
             id,
             title,
-            caption: say!("Not drawn: ", reason),
+            caption: format!("Not drawn: {reason}"),
             svg: None,
         }
     }
@@ -94,7 +95,7 @@ const DISC: &str = "#eef5f4";
 #[derive(Debug, Clone, Copy)]
 struct Pen {
     width: f64,
-    /// The width as [`Fixed`]`(width, 1)` writes it.
+    /// The width as `{:.1}` writes it.
     width_text: &'static str,
     colour: &'static str,
     /// `" stroke-width="{width}" stroke="{colour}`: after a number, before the end.
@@ -183,18 +184,23 @@ fn push_escaped(out: &mut String, text: &str) {
     let _ = Escapes::Html.write(out, text, svg_entity);
 }
 
-/// A coordinate, as `{:.1}` writes it (see [`Fixed`] and [`Tenths`]).
-fn d1(v: f64) -> Tenths {
-    Tenths(v)
+/// A coordinate, as `{:.1}` writes it.
+#[derive(Debug, Clone, Copy)]
+struct D1(f64);
+
+impl fmt::Display for D1 {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        write!(f, "{:.1}", self.0)
+    }
+}
+
+fn d1(v: f64) -> D1 {
+    D1(v)
 }
 
 /// A tiny SVG writer: shapes with presentation attributes only (no `style`),
 /// so the page's Content-Security-Policy holds and print keeps the colours.
-/// Each element is written with `say_to!` as literal markup with the syntax
-/// around its numbers (`"<line x1=\""`, `"\" y1=\""`) and the numbers to one
-/// decimal ([`d1`]), straight into the body: a page has hundreds, and the
-/// formatting machinery per number cost more than the drawing. Strokes and
-/// type come as [`Pen`] and [`Face`], their attributes written out already.
+/// Strokes and type come as [`Pen`] and [`Face`], their attributes written out already.
 struct Svg {
     body: String,
 }
@@ -206,50 +212,26 @@ impl Svg {
     fn new(id: &str, title: &str, width: f64, height: f64) -> Svg {
         // A drawing is a few kilobytes; start there, not at zero.
         let mut body = String::with_capacity(4096);
-        let (w, h) = (Fixed(width, 0), Fixed(height, 0));
-        say_to!(
-            &mut body,
-            "<svg xmlns=\"http://www.w3.org/2000/svg\" class=\"drawing\" viewBox=\"0 0 ",
-            w,
-            " ",
-            h,
-            "\" width=\"",
-            w,
-            "\" height=\"",
-            h,
-            "\" role=\"img\" aria-labelledby=\"",
-            id,
-            "-t\" aria-describedby=\"",
-            id,
-            "-c\" font-family=\"system-ui, sans-serif\"><title id=\"",
-            id,
-            "-t\">",
+        let _ = write!(
+            body,
+            "<svg xmlns=\"http://www.w3.org/2000/svg\" class=\"drawing\" viewBox=\"0 0 {width:.0} {height:.0}\" width=\"{width:.0}\" height=\"{height:.0}\" role=\"img\" aria-labelledby=\"{id}-t\" aria-describedby=\"{id}-c\" font-family=\"system-ui, sans-serif\"><title id=\"{id}-t\">",
         );
         push_escaped(&mut body, title);
-        say_to!(
-            &mut body,
-            "</title><rect width=\"",
-            w,
-            "\" height=\"",
-            h,
-            "\" fill=\"",
-            PAPER,
-            "\"/>",
+        let _ = write!(
+            body,
+            "</title><rect width=\"{width:.0}\" height=\"{height:.0}\" fill=\"{PAPER}\"/>",
         );
         Svg { body }
     }
 
     fn line(&mut self, (x1, y1): (f64, f64), (x2, y2): (f64, f64), pen: Pen, dash: bool) {
-        say_to!(
-            &mut self.body,
-            "<line x1=\"",
-            d1(x1),
-            "\" y1=\"",
-            d1(y1),
-            "\" x2=\"",
-            d1(x2),
-            "\" y2=\"",
-            d1(y2),
+        let _ = write!(
+            self.body,
+            "<line x1=\"{:.1}\" y1=\"{:.1}\" x2=\"{:.1}\" y2=\"{:.1}{}{}",
+            x1,
+            y1,
+            x2,
+            y2,
             pen.attrs,
             if dash {
                 "\" stroke-dasharray=\"5 4\"/>"
@@ -275,58 +257,28 @@ impl Svg {
             (base.0 - uy * half, base.1 + ux * half),
             (base.0 + uy * half, base.1 - ux * half),
         );
-        say_to!(
-            &mut self.body,
-            "<polygon points=\"",
-            d1(to.0),
-            ",",
-            d1(to.1),
-            " ",
-            d1(left.0),
-            ",",
-            d1(left.1),
-            " ",
-            d1(right.0),
-            ",",
-            d1(right.1),
-            "\" fill=\"",
-            pen.colour,
-            "\"/>",
+        let _ = write!(
+            self.body,
+            "<polygon points=\"{:.1},{:.1} {:.1},{:.1} {:.1},{:.1}\" fill=\"{}\"/>",
+            to.0, to.1, left.0, left.1, right.0, right.1, pen.colour,
         );
     }
 
     fn rect(&mut self, x: f64, y: f64, w: f64, h: f64, fill: &str, stroke: &str) {
-        say_to!(
-            &mut self.body,
-            "<rect x=\"",
-            d1(x),
-            "\" y=\"",
-            d1(y),
-            "\" width=\"",
-            d1(w.max(0.0)),
-            "\" height=\"",
-            d1(h.max(0.0)),
-            "\" fill=\"",
-            fill,
-            "\" stroke=\"",
-            stroke,
-            "\"/>",
+        let _ = write!(
+            self.body,
+            "<rect x=\"{:.1}\" y=\"{:.1}\" width=\"{:.1}\" height=\"{:.1}\" fill=\"{fill}\" stroke=\"{stroke}\"/>",
+            x,
+            y,
+            w.max(0.0),
+            h.max(0.0),
         );
     }
 
     fn circle(&mut self, (cx, cy): (f64, f64), r: f64, fill: &str, stroke: &str, dash: bool) {
-        say_to!(
-            &mut self.body,
-            "<circle cx=\"",
-            d1(cx),
-            "\" cy=\"",
-            d1(cy),
-            "\" r=\"",
-            d1(r),
-            "\" fill=\"",
-            fill,
-            "\" stroke=\"",
-            stroke,
+        let _ = write!(
+            self.body,
+            "<circle cx=\"{cx:.1}\" cy=\"{cy:.1}\" r=\"{r:.1}\" fill=\"{fill}\" stroke=\"{stroke}{}",
             if dash {
                 "\" stroke-width=\"1.5\" stroke-dasharray=\"4 3\"/>"
             } else {
@@ -341,49 +293,25 @@ impl Svg {
     fn arc(
         &mut self,
         from: (f64, f64),
-        r: impl Piece + Copy,
+        r: impl fmt::Display + Copy,
         flags: &str,
         to: (f64, f64),
         pen: Pen,
     ) {
-        say_to!(
-            &mut self.body,
-            "<path stroke-width=\"",
-            pen.width_text,
-            "\" d=\"M ",
-            d1(from.0),
-            " ",
-            d1(from.1),
-            " A ",
-            r,
-            " ",
-            r,
-            " 0 ",
-            flags,
-            " ",
-            d1(to.0),
-            " ",
-            d1(to.1),
-            "\" fill=\"none\" stroke=\"",
-            pen.colour,
-            "\"/>",
+        let _ = write!(
+            self.body,
+            "<path stroke-width=\"{}\" d=\"M {:.1} {:.1} A {r} {r} 0 {flags} {:.1} {:.1}\" fill=\"none\" stroke=\"{}\"/>",
+            pen.width_text, from.0, from.1, to.0, to.1, pen.colour,
         );
     }
 
-    /// Text at a point, set in `face`. The text's pieces are written in
-    /// place and escaped after, only if they need it (they are numbers and
-    /// the drawings' own words, so almost never).
-    fn text(&mut self, (x, y): (f64, f64), face: Face, text: impl Piece) {
-        say_to!(
-            &mut self.body,
-            "<text x=\"",
-            d1(x),
-            "\" y=\"",
-            d1(y),
-            face.0,
-        );
+    /// Text at a point, set in `face`. The text is written in place and
+    /// escaped after, only if it needs it (numbers and the drawings' own
+    /// words, so almost never).
+    fn text(&mut self, (x, y): (f64, f64), face: Face, text: impl fmt::Display) {
+        let _ = write!(self.body, "<text x=\"{x:.1}\" y=\"{y:.1}{}", face.0);
         let start = self.body.len();
-        say_to!(&mut self.body, text);
+        let _ = write!(self.body, "{text}");
         let written = &self.body.as_bytes()[start..];
         if Escapes::Html.clean_run(written) < written.len() {
             let raw = self.body.split_off(start);
@@ -519,7 +447,7 @@ pub fn free_body(report: &Report, claim: &Claim) -> Drawing {
     svg.text(
         (centre.0 - 8.0, weight_tip.1 - 4.0),
         face!("end", 12.0, ink),
-        ("weight ", Sig3(f.weight), " N"),
+        format_args!("weight {} N", Sig3(f.weight)),
     );
     if f.unbalanced > 0.0 {
         svg.line(vertical_tip, thrust_tip, pen!(muted, 1.0), true);
@@ -528,13 +456,13 @@ pub fn free_body(report: &Report, claim: &Claim) -> Drawing {
         svg.text(
             (centre.0 - 8.0, vertical_tip.1 + 12.0),
             face!("end", 11.0, muted),
-            ("upward part ", Sig3(f.weight), " N"),
+            format_args!("upward part {} N", Sig3(f.weight)),
         );
         svg.arrow(centre, horizontal_tip, pen!(force, 2.5), true);
         svg.text(
             (centre.0 + 46.0, centre.1 + 36.0),
             face!("start", 12.0, force),
-            ("unbalanced ", Sig3(f.unbalanced), " N"),
+            format_args!("unbalanced {} N", Sig3(f.unbalanced)),
         );
         // The tilt angle, between the vertical and the thrust.
         let r = 34.0;
@@ -547,14 +475,14 @@ pub fn free_body(report: &Report, claim: &Claim) -> Drawing {
                 centre.1 - (r + 6.0) * mid.cos(),
             ),
             face!("start", 11.0, ink),
-            ("tilt ", Sig3(f.tilt_deg), " deg"),
+            format_args!("tilt {} deg", Sig3(f.tilt_deg)),
         );
     }
     svg.arrow(centre, thrust_tip, pen!(thrust, 3.0), false);
     svg.text(
         (thrust_tip.0 + 6.0, (thrust_tip.1 + 4.0).max(14.0)),
         face!("start", 12.0, thrust),
-        ("thrust ", Sig3(f.thrust), " N"),
+        format_args!("thrust {} N", Sig3(f.thrust)),
     );
 
     // Scale bar, bottom right.
@@ -564,30 +492,23 @@ pub fn free_body(report: &Report, claim: &Claim) -> Drawing {
     svg.text(
         (330.0, 258.0),
         face!("end", 11.0, ink),
-        ("", Sig3(step), " N"),
+        format_args!("{} N", Sig3(step)),
     );
 
     let caption = if f.unbalanced > 0.0 {
-        say!(
-            "Side view, to scale (",
+        format!(
+            "Side view, to scale ({} N per bar). Tilted {} deg, the rotors must push {} N to carry the {} N weight, and the forward part of that push, {} N, has nothing to balance it in still air: the craft would accelerate forward.",
             Sig3(step),
-            " N per bar). Tilted ",
             Sig3(f.tilt_deg),
-            " deg, the rotors must push ",
             Sig3(f.thrust),
-            " N to carry the ",
             Sig3(f.weight),
-            " N weight, and the forward part of that push, ",
             Sig3(f.unbalanced),
-            " N, has nothing to balance it in still air: the craft would accelerate forward.",
         )
     } else {
-        say!(
-            "Side view, to scale (",
+        format!(
+            "Side view, to scale ({} N per bar). Level, the rotors carry the {} N weight straight up; no force is left over.",
             Sig3(step),
-            " N per bar). Level, the rotors carry the ",
             Sig3(f.weight),
-            " N weight straight up; no force is left over.",
         )
     };
     Drawing {
@@ -669,31 +590,28 @@ pub fn thrust_bar(report: &Report) -> Drawing {
             pen!(ink, 2.5),
             false,
         );
-        bar_label(&mut svg, end, y + 15.0, &say!(Sig3(*available), " N"));
+        bar_label(&mut svg, end, y + 15.0, &format!("{} N", Sig3(*available)));
     }
     let wx = x_of(weight);
     svg.line((wx, top - 8.0), (wx, bottom), pen!(force, 2.0), true);
     svg.text(
         (wx.clamp(BAR_X + 40.0, BAR_X + BAR_W - 40.0), top - 12.0),
         face!("middle", 11.0, force),
-        ("weight ", Sig3(weight), " N"),
+        format_args!("weight {} N", Sig3(weight)),
     );
     axis(&mut svg, max, bottom, "newtons");
     svg.text(
         (10.0, bottom + 52.0),
         face!("start", 10.5, ink),
-        (
-            "bar: all rotors at full power; solid mark: ",
-            Fixed(hover_share * 100.0, 0),
-            " % of it, the most to hover on",
+        format_args!(
+            "bar: all rotors at full power; solid mark: {:.0} % of it, the most to hover on",
+            hover_share * 100.0
         ),
     );
-    let caption = say!(
-        "Bars to scale: the thrust all rotors give at full power under each set of assumptions. The dashed line is the weight, ",
+    let caption = format!(
+        "Bars to scale: the thrust all rotors give at full power under each set of assumptions. The dashed line is the weight, {} N; the solid mark on each bar is {:.0} % of that bar, the most a craft should spend just to hover.",
         Sig3(weight),
-        " N; the solid mark on each bar is ",
-        Fixed(hover_share * 100.0, 0),
-        " % of that bar, the most a craft should spend just to hover.",
+        hover_share * 100.0,
     );
     Drawing {
         id: ID,
@@ -749,7 +667,7 @@ pub fn energy_bar(report: &Report) -> Drawing {
             &mut svg,
             end,
             y + 11.0,
-            &say!("stored ", Sig3(*stored), " Wh"),
+            &format!("stored {} Wh", Sig3(*stored)),
         );
         if let Some(needed) = needed {
             let end = x_of(*needed);
@@ -758,7 +676,7 @@ pub fn energy_bar(report: &Report) -> Drawing {
                 &mut svg,
                 end,
                 y + 28.0,
-                &say!("needed ", Sig3(*needed), " Wh"),
+                &format!("needed {} Wh", Sig3(*needed)),
             );
         }
     }
@@ -769,10 +687,9 @@ pub fn energy_bar(report: &Report) -> Drawing {
         "upper bar: usable energy stored; lower bar: energy the claim needs",
     );
     let caption = match claimed_min {
-        Some(min) if rows.iter().any(|r| r.2.is_some()) => say!(
-            "Bars to scale: the battery's usable energy under each set of assumptions, and the energy hovering for the claimed ",
+        Some(min) if rows.iter().any(|r| r.2.is_some()) => format!(
+            "Bars to scale: the battery's usable energy under each set of assumptions, and the energy hovering for the claimed {} min takes at that set's hover power.",
             Sig3(min),
-            " min takes at that set's hover power.",
         ),
         _ => "Bars to scale: the battery's usable energy under each set of assumptions. No flight time is claimed, so no energy needed is drawn.".to_string(),
     };
@@ -792,46 +709,42 @@ pub fn rotor_layout(claim: &Claim, plan: Option<&layout::Plan>) -> Drawing {
         return Drawing::omitted(
             ID,
             TITLE,
-            &say!(
-                "the sheet does not say how its ",
+            &format!(
+                "the sheet does not say how its {} rotors are arranged (give rotors.layout and rotors.arm, or layout = \"custom\" with [[rotors.at]]).",
                 claim.rotors.count,
-                " rotors are arranged (give rotors.layout and rotors.arm, or layout = \"custom\" with [[rotors.at]]).",
             ),
         );
     };
     let (svg, scale_note) = draw_plan(ID, TITLE, plan, None);
     let axes: Vec<&str> = plan.lacking.iter().map(|a| a.id()).collect();
-    let caption = say!(
-        "Top view, to scale (",
-        &scale_note,
-        " per bar), front up: ",
+    let mut caption = format!(
+        "Top view, to scale ({scale_note} per bar), front up: {} {}, numbered from the nose clockwise, each marked with its spin as seen from above.",
         plan.rotors.len(),
-        if plan.rotors.len() == 1 {
-            " rotor"
-        } else {
-            " rotors"
-        },
-        ", numbered from the nose clockwise, each marked with its spin as seen from above.",
-        plan.arm_assumed.then_some((
-            " The sheet gives no arm length, so positions are drawn to a ",
-            layout::STAND_IN_ARM_MM,
-            " mm arm.",
-        )),
-        plan.diameter
-            .is_none()
-            .then_some(" The sheet gives no rotor diameter; dashed discs are not to scale."),
-        (claim.rotors.spins.is_none() && claim.rotors.at.is_empty())
-            .then_some(" Spins are not stated; the usual alternating pattern is drawn."),
-        plan.rotors
-            .iter()
-            .any(|r| r.tilts)
-            .then_some(" Rotors marked \"tilts\" have a tilt actuator."),
-        (!axes.is_empty()).then_some((
-            " At hover these rotors cannot command: ",
-            Joined(&axes, ", "),
-            ".",
-        )),
+        if plan.rotors.len() == 1 { "rotor" } else { "rotors" },
     );
+    if plan.arm_assumed {
+        let _ = write!(
+            caption,
+            " The sheet gives no arm length, so positions are drawn to a {} mm arm.",
+            layout::STAND_IN_ARM_MM
+        );
+    }
+    if plan.diameter.is_none() {
+        caption.push_str(" The sheet gives no rotor diameter; dashed discs are not to scale.");
+    }
+    if claim.rotors.spins.is_none() && claim.rotors.at.is_empty() {
+        caption.push_str(" Spins are not stated; the usual alternating pattern is drawn.");
+    }
+    if plan.rotors.iter().any(|r| r.tilts) {
+        caption.push_str(" Rotors marked \"tilts\" have a tilt actuator.");
+    }
+    if !axes.is_empty() {
+        let _ = write!(
+            caption,
+            " At hover these rotors cannot command: {}.",
+            axes.join(", ")
+        );
+    }
     Drawing {
         id: ID,
         title: TITLE,
@@ -863,26 +776,18 @@ pub fn rotor_failure(claim: &Claim, plan: Option<&layout::Plan>) -> Option<Drawi
     let typical = acai[2];
     // An index within rounding of zero is zero: no margin at all for some moment.
     let caption = if typical > ZERO_AUTHORITY {
-        say!(
-            "Top view (",
-            &scale_note,
-            " per bar) with rotor ",
-            lost,
-            " stopped, the loss that hurts most. The rest can still hold a hover: their available control authority index (Du et al. 2015) stays at ",
+        format!(
+            "Top view ({scale_note} per bar) with rotor {lost} stopped, the loss that hurts most. The rest can still hold a hover: their available control authority index (Du et al. 2015) stays at {} with typical hardware.",
             Sig3(typical),
-            " with typical hardware.",
         )
     } else {
-        let below_zero =
-            (typical.abs() > ZERO_AUTHORITY).then_some((Sig3(typical), ", below zero", ""));
-        say!(
-            "Top view (",
-            &scale_note,
-            " per bar) with rotor ",
-            lost,
-            " stopped, the loss that hurts most. The rest cannot hold a hover: their available control authority index (Du et al. 2015) is ",
-            say::Or(below_zero, "zero"),
-            " with typical hardware, so some moment the craft needs is out of reach.",
+        let index = if typical.abs() > ZERO_AUTHORITY {
+            format!("{}, below zero", Sig3(typical))
+        } else {
+            "zero".to_string()
+        };
+        format!(
+            "Top view ({scale_note} per bar) with rotor {lost} stopped, the loss that hurts most. The rest cannot hold a hover: their available control authority index (Du et al. 2015) is {index} with typical hardware, so some moment the craft needs is out of reach.",
         )
     };
     Some(Drawing {
@@ -962,9 +867,9 @@ fn draw_plan(id: &str, title: &str, plan: &layout::Plan, lost: Option<usize>) ->
         let tilts = if r.tilts && coaxial { " tilts" } else { "" };
         let label = if coaxial {
             let level = if i == 0 { "upper" } else { "lower" };
-            say!(i + 1, " ", level, " ", spin, tilts)
+            format!("{} {level} {spin}{tilts}", i + 1)
         } else {
-            say!(i + 1, " ", spin)
+            format!("{} {spin}", i + 1)
         };
         if r.tilts && !coaxial {
             svg.text((c.0, c.1 + rad + 12.0), face!("middle", 10.5, ink), "tilts");
@@ -987,7 +892,7 @@ fn draw_plan(id: &str, title: &str, plan: &layout::Plan, lost: Option<usize>) ->
     let step_m = nice_step(extent * 2.0);
     let bar = step_m * scale;
     svg.line((300.0 - bar, 305.0), (300.0, 305.0), pen!(ink, 2.0), false);
-    let step_label = say!(Sig3(step_m * 1000.0), " mm");
+    let step_label = format!("{} mm", Sig3(step_m * 1000.0));
     svg.text((300.0, 298.0), face!("end", 11.0, ink), &step_label);
     (svg, step_label)
 }
@@ -1028,22 +933,14 @@ mod tests {
     #[test]
     fn pens_and_faces_spell_out_what_their_numbers_and_colours_write() {
         let pen = pen!(muted, 2.5);
-        let expected = say!(
-            "\" stroke-width=\"",
-            Fixed(2.5, 1),
-            "\" stroke=\"",
-            "#6b7080"
-        );
+        let expected = format!("\" stroke-width=\"{:.1}\" stroke=\"#6b7080", 2.5);
         assert_eq!(pen.attrs, expected);
-        assert_eq!(pen.width_text, Fixed(pen.width, 1).to_string());
+        assert_eq!(pen.width_text, format!("{:.1}", pen.width));
         assert_eq!(pen.colour, "#6b7080");
         let face = face!("end", 10.5, ink);
-        let expected = say!(
-            "\" font-size=\"",
-            Fixed(10.5, 1),
-            "\" text-anchor=\"end\" fill=\"",
-            INK,
-            "\">"
+        let expected = format!(
+            "\" font-size=\"{:.1}\" text-anchor=\"end\" fill=\"{INK}\">",
+            10.5
         );
         assert_eq!(face.0, expected);
     }
@@ -1057,7 +954,7 @@ mod tests {
             let text = format!("{}.{}", n / 10, n % 10);
             assert!(one_decimal(&text), "{text}");
             let value: f64 = text.parse().unwrap();
-            assert_eq!(Fixed(value, 1).to_string(), text);
+            assert_eq!(format!("{value:.1}"), text);
         }
         for text in ["", "1", "1.", ".5", "2.50", "1e1", "-1.0", "1.5 ", "10,5"] {
             assert!(!one_decimal(text), "{text:?}");

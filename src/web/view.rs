@@ -11,8 +11,7 @@ use axum::http::StatusCode;
 
 use crate::catalog::tiers::{self, Tier};
 use crate::claim::Claim;
-use crate::report::say::{say, say_to, Piece};
-use crate::report::{sig3, Figure, Finding, Report, Sig3, Verdict};
+use crate::report::{Figure, Finding, Report, Sig3, Verdict};
 use crate::rules::{self, control_authority::LayoutView};
 use crate::scan::Escapes;
 use crate::sources::{self, Source};
@@ -138,7 +137,7 @@ impl askama::FastWritable for Cell {
         match *self {
             Cell::Missing => dest.write_str("-")?,
             Cell::Count(n) => write!(dest, "{n}")?,
-            Cell::Number(v) => Sig3(v).write_to(dest)?,
+            Cell::Number(v) => write!(dest, "{}", Sig3(v))?,
         }
         Ok(())
     }
@@ -326,28 +325,20 @@ pub fn summary(report: &Report) -> String {
         .iter()
         .max_by_key(|f| f.verdict.severity())
         .expect("findings is not empty");
-    let deciding = (report.verdict != Verdict::Consistent).then(|| {
-        (
-            (
-                " The deciding check is ",
-                Lower(rule_title(worst.rule)),
-                ": ",
-            ),
-            worst.headline.as_str(),
-            "",
+    let deciding = if report.verdict != Verdict::Consistent {
+        format!(
+            " The deciding check is {}: {}",
+            rule_title(worst.rule).to_lowercase(),
+            worst.headline
         )
-    });
-    say!(
-        n,
-        if n == 1 { " check" } else { " checks" },
-        " ran on this sheet: ",
-        counts,
-        ". The overall verdict is the worst of them, ",
+    } else {
+        String::new()
+    };
+    format!(
+        "{n} {} ran on this sheet: {counts}. The overall verdict is the worst of them, {}: the claim {}.{deciding}",
+        if n == 1 { "check" } else { "checks" },
         report.verdict.label(),
-        ": the claim ",
         report.verdict.meaning(),
-        ".",
-        deciding,
     )
 }
 
@@ -355,31 +346,17 @@ pub fn summary(report: &Report) -> String {
 /// the order of [`Verdict::ALL`].
 struct Counts([(usize, &'static str); 5]);
 
-impl Piece for Counts {
-    fn size(&self) -> usize {
-        self.0.iter().map(|(_, label)| label.len() + 24).sum()
-    }
-    fn push_to(&self, out: &mut String) {
+impl fmt::Display for Counts {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
         let mut first = true;
         for &(k, label) in self.0.iter().filter(|(k, _)| *k > 0) {
             if !first {
-                out.push_str(", ");
+                f.write_str(", ")?;
             }
             first = false;
-            say_to!(out, k, " ", label);
+            write!(f, "{k} {label}")?;
         }
-    }
-}
-
-/// A text in lower case, as `str::to_lowercase` writes it.
-struct Lower(&'static str);
-
-impl Piece for Lower {
-    fn size(&self) -> usize {
-        self.0.len()
-    }
-    fn push_to(&self, out: &mut String) {
-        out.extend(self.0.chars().flat_map(char::to_lowercase));
+        Ok(())
     }
 }
 
@@ -510,13 +487,13 @@ impl MethodsPage {
                     key: r.key,
                     label: r.label,
                     unit: unit_label(r.unit),
-                    values: r.values.iter().map(|v| sig3(*v)).collect(),
+                    values: r.values.iter().map(|v| Sig3(*v).to_string()).collect(),
                     basis: r.basis.describe(),
                 })
                 .collect(),
             sources: sources::SOURCES,
             verdicts: Verdict::ALL.iter().map(|v| VerdictView::of(*v)).collect(),
-            hover_share: sig3(tiers::HOVER_FRACTION_MAX.at(Tier::Typical) * 100.0),
+            hover_share: Sig3(tiers::HOVER_FRACTION_MAX.at(Tier::Typical) * 100.0).to_string(),
         }
     }
 }
