@@ -8,4 +8,5 @@ pub mod report;
 pub mod rules;
 pub mod scan;
 pub mod sources;
+pub mod tier;
 pub mod web;

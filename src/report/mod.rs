@@ -12,7 +12,7 @@ use std::borrow::Cow;
 use serde::Serialize;
 use utoipa::ToSchema;
 
-pub use crate::catalog::tiers::Tier;
+pub use crate::tier::{PerTier, Tier};
 pub use numbers::Sig3;
 pub use text::render_text;
 

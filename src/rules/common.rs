@@ -2,14 +2,13 @@
 //! and figure builders.
 
 use std::borrow::Cow;
-use std::fmt::Display;
 
 use uom::si::f64::{Force, Length};
 
-use crate::catalog::tiers::Tier;
 use crate::claim::Claim;
 use crate::physics::atmosphere::{self, Air};
 use crate::report::{Figure, Verdict};
+use crate::tier::Tier;
 
 /// The air the claim flies in: ISA at the stated altitude and temperature.
 pub fn air(claim: &Claim) -> Air {
@@ -78,12 +77,6 @@ pub fn per_tier(
         .map(move |t| (t, value(t)))
         .filter(|(_, v)| v.is_finite())
         .map(move |(t, v)| tiered(key, label, t, v, unit))
-}
-
-/// The values at the three tiers, most generous first, as the assumptions
-/// list them: "1 / 0.75 / 0.45".
-pub fn tier_list<T: Display>([a, b, c]: [T; 3]) -> String {
-    format!("{a} / {b} / {c}")
 }
 
 /// The rotor diameter: stated, else the middle of the motor class's usual range.

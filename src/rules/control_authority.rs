@@ -19,12 +19,13 @@ use serde::Serialize;
 use uom::si::f64::{Force, Length};
 use uom::si::{length::millimeter, torque::newton_meter};
 
-use super::common::{self, fixed, per_tier, tier_list, tiered};
+use super::common::{self, fixed, per_tier, tiered};
 use super::thrust_margin;
-use crate::catalog::tiers::{Tier, REACTIVE_TORQUE, THRUST_MISMATCH};
+use crate::catalog::tiers::{REACTIVE_TORQUE, THRUST_MISMATCH};
 use crate::claim::{Claim, Layout, Mount, Spin};
 use crate::physics::control::{self, Authority, Axis, Hover, Placement};
 use crate::report::{Figure, Finding, Sig3, Verdict};
+use crate::tier::{PerTier, Tier};
 
 pub const ID: &str = "control-authority";
 pub const TITLE: &str = "Control authority";
@@ -48,14 +49,14 @@ struct Analysis {
     diameter: Length,
     authority: Authority,
     /// Per-rotor maximum thrust per tier, when the sheet lets it be estimated.
-    thrust: Option<[Force; 3]>,
+    thrust: Option<PerTier<Force>>,
     /// The attainable set's face normals, worked out on first use: one set per
     /// distinct drag-torque ratio (the generous tiers share theirs), and the set of each tier.
-    faces: OnceCell<(Vec<control::Faces>, [usize; 3])>,
+    faces: OnceCell<(Vec<control::Faces>, PerTier<usize>)>,
 }
 
 /// Sets of lost rotors (0-based), with the ACAI at each tier.
-type FailureTable = Vec<(Vec<usize>, [f64; 3])>;
+type FailureTable = Vec<(Vec<usize>, PerTier<f64>)>;
 
 impl Analysis {
     fn torque_ratio(&self, t: Tier) -> Length {
@@ -65,12 +66,12 @@ impl Analysis {
     fn acai(&self, t: Tier, lost: &[usize]) -> Option<f64> {
         let hover = Hover {
             weight: self.weight,
-            rotor_thrust: self.thrust?[t as usize],
+            rotor_thrust: self.thrust?[t],
             torque_ratio: self.torque_ratio(t),
         };
         let (faces, of_tier) = self.faces.get_or_init(|| {
             let mut ratios: Vec<Length> = Vec::with_capacity(3);
-            let of_tier = Tier::ALL.map(|t| {
+            let of_tier = PerTier::from_fn(|t| {
                 let k = self.torque_ratio(t);
                 ratios.iter().position(|&r| r == k).unwrap_or_else(|| {
                     ratios.push(k);
@@ -83,7 +84,7 @@ impl Analysis {
                 .collect();
             (faces, of_tier)
         });
-        Some(faces[of_tier[t as usize]].hover_acai(&self.placements, &hover, lost))
+        Some(faces[of_tier[t]].hover_acai(&self.placements, &hover, lost))
     }
 
     /// The margin the ACAI must clear: none at the generous tiers; at the typical
@@ -121,8 +122,11 @@ impl Analysis {
         }
         sets.into_iter()
             .map(|s| {
-                let v = Tier::ALL.map(|t| self.acai(t, &s));
-                Some((s, [v[0]?, v[1]?, v[2]?]))
+                let v = PerTier::from_fn(|t| self.acai(t, &s));
+                Some((
+                    s,
+                    PerTier::new(v.physical_limit?, v.best_practice?, v.typical?),
+                ))
             })
             .collect()
     }
@@ -273,7 +277,7 @@ fn assess(claim: &Claim, an: &Analysis) -> Finding {
     ));
     assumptions.push(format!(
         "Propeller drag torque per thrust {} of the rotor diameter ({} mm); {}.",
-        tier_list(REACTIVE_TORQUE.values),
+        REACTIVE_TORQUE.values,
         Sig3(an.diameter.get::<millimeter>()),
         REACTIVE_TORQUE.basis,
     ));
@@ -333,12 +337,11 @@ fn assess(claim: &Claim, an: &Analysis) -> Finding {
         return f;
     }
     let searched = if table.is_some() { searched } else { 0 };
-    let intact = Tier::ALL.map(|t| an.acai(t, &[]).unwrap_or(f64::NAN));
+    let intact = PerTier::from_fn(|t| an.acai(t, &[]).unwrap_or(f64::NAN));
     let table = table.unwrap_or_default();
     let claimed_sets = || table.iter().filter(|(s, _)| s.len() <= claimed);
     let passes = |t: Tier| {
-        intact[t as usize] > an.margin(t, &[])
-            && claimed_sets().all(|(s, v)| v[t as usize] > an.margin(t, s))
+        intact[t] > an.margin(t, &[]) && claimed_sets().all(|(s, v)| v[t] > an.margin(t, s))
     };
     let fails_at = common::first_failure(passes);
     let verdict = Verdict::failing_at(fails_at);
@@ -350,7 +353,7 @@ fn assess(claim: &Claim, an: &Analysis) -> Finding {
         "acai",
         "Available control authority index, intact (N and N m)",
         "N, N m",
-        |t| intact[t as usize],
+        |t| intact[t],
     ));
     figures.push(tiered(
         "mismatch_moment",
@@ -363,7 +366,7 @@ fn assess(claim: &Claim, an: &Analysis) -> Finding {
         table
             .iter()
             .filter(|(s, _)| s.len() == size)
-            .min_by(|a, b| a.1[t as usize].total_cmp(&b.1[t as usize]))
+            .min_by(|a, b| a.1[t].total_cmp(&b.1[t]))
     };
     for (size, key) in LOST_KEYS.iter().enumerate().map(|(i, k)| (i + 1, *k)) {
         for t in Tier::ALL {
@@ -372,17 +375,17 @@ fn assess(claim: &Claim, an: &Analysis) -> Finding {
                     1 => format!("ACAI with the worst rotor lost ({})", RotorList(s)),
                     _ => format!("ACAI with the worst {size} rotors lost ({})", RotorList(s)),
                 };
-                figures.push(tiered(key, label, t, v[t as usize], "N, N m"));
+                figures.push(tiered(key, label, t, v[t], "N, N m"));
             }
         }
     }
     figures.retain(|f: &Figure| f.value.is_finite());
 
     // 3. The words.
-    let at = |t: Tier| Sig3(intact[t as usize]);
-    let lifts = |t: Tier| thrust[t as usize] * n as f64 >= an.weight;
-    let first_bad_set = |t: Tier| claimed_sets().find(|(s, v)| v[t as usize] <= an.margin(t, s));
-    let intact_fails = |t: Tier| intact[t as usize] <= an.margin(t, &[]);
+    let at = |t: Tier| Sig3(intact[t]);
+    let lifts = |t: Tier| thrust[t] * n as f64 >= an.weight;
+    let first_bad_set = |t: Tier| claimed_sets().find(|(s, v)| v[t] <= an.margin(t, s));
+    let intact_fails = |t: Tier| intact[t] <= an.margin(t, &[]);
     let (headline, would_take) = match fails_at {
         Some(t) if intact_fails(t) && !lifts(t) => (
             format!(
@@ -391,7 +394,7 @@ fn assess(claim: &Claim, an: &Analysis) -> Finding {
             ),
             "It would take more thrust per rotor or more rotors (see thrust-margin).".to_string(),
         ),
-        Some(Tier::Typical) if intact[Tier::Typical as usize] <= 0.0 => (
+        Some(Tier::Typical) if intact[Tier::Typical] <= 0.0 => (
             format!(
                 "With typical rotors it cannot make every moment a hover needs (ACAI {}); only better-than-typical ones give it control.",
                 at(Tier::Typical),
@@ -417,7 +420,7 @@ fn assess(claim: &Claim, an: &Analysis) -> Finding {
             "It would take rotors with more thrust to spare, longer arms, or rotors of both spin directions spread around the centre of mass.".to_string(),
         ),
         Some(t) => {
-            let (set, v) = first_bad_set(t).map_or((&[][..], 0.0), |(s, v)| (&s[..], v[t as usize]));
+            let (set, v) = first_bad_set(t).map_or((&[][..], 0.0), |(s, v)| (&s[..], v[t]));
             (
                 format!(
                     "It is said to keep flying after losing {claimed} {}, but with {} lost the rest {} (ACAI {} {}).",
@@ -433,7 +436,7 @@ fn assess(claim: &Claim, an: &Analysis) -> Finding {
         None => {
             let single = worst(1, Tier::Typical);
             let after: Cow<str> = match (claimed, single) {
-                (0, Some((s, v))) if v[2] <= 0.0 => {
+                (0, Some((s, v))) if v[Tier::Typical] <= 0.0 => {
                     format!(" Losing {} would leave it without control.", RotorList(s)).into()
                 }
                 (0, Some(_)) => " It could keep flying after losing any one rotor.".into(),
@@ -535,8 +538,14 @@ pub fn worst_single_loss(claim: &Claim) -> Option<(usize, [f64; 3])> {
     an.failures(1)?
         .into_iter()
         .filter(|(_, acai)| acai.iter().all(|a| a.is_finite()))
-        .min_by(|a, b| a.1[2].total_cmp(&b.1[2]))
-        .map(|(lost, acai)| (lost[0] + 1, acai))
+        .min_by(|a, b| a.1[Tier::Typical].total_cmp(&b.1[Tier::Typical]))
+        // In tier order, as the drawings of the web layer read it.
+        .map(|(lost, acai)| {
+            (
+                lost[0] + 1,
+                [acai.physical_limit, acai.best_practice, acai.typical],
+            )
+        })
 }
 
 #[cfg(test)]

@@ -16,14 +16,15 @@ use uom::si::{
     mass::kilogram, power::watt, time::minute,
 };
 
-use super::common::{self, fixed, per_tier, tier_list};
+use super::common::{self, fixed, per_tier};
 use super::thrust_margin::{self, Lift};
-use crate::catalog::tiers::{self, Tier, AVIONICS_POWER, DEPTH_OF_DISCHARGE};
+use crate::catalog::tiers::{self, AVIONICS_POWER, DEPTH_OF_DISCHARGE};
 use crate::catalog::{self, Chemistry, Drive};
 use crate::claim::{Claim, Layout};
 use crate::physics::atmosphere::Air;
 use crate::physics::{battery, rotor};
 use crate::report::{Finding, Sig3};
+use crate::tier::{PerTier, Tier};
 
 pub const ID: &str = "energy-budget";
 pub const TITLE: &str = "Energy for the stated flight time";
@@ -96,12 +97,12 @@ pub fn check(claim: &Claim) -> Finding {
     let pack_v = battery::pack_voltage(bat.cells, cell_v);
     let m = claim.craft.mass;
 
-    let power = Tier::ALL.map(|t| frame.hover_power(m, t));
-    let energy = Tier::ALL
-        .map(|t| battery::usable_energy(bat.cells, cell_v, capacity, DEPTH_OF_DISCHARGE.at(t)));
-    let endurance = Tier::ALL.map(|t| battery::run_time(energy[t as usize], power[t as usize]));
-    let c_rate =
-        Tier::ALL.map(|t| battery::c_rate(battery::current(power[t as usize], pack_v), capacity));
+    let power = PerTier::from_fn(|t| frame.hover_power(m, t));
+    let energy = PerTier::from_fn(|t| {
+        battery::usable_energy(bat.cells, cell_v, capacity, DEPTH_OF_DISCHARGE.at(t))
+    });
+    let endurance = PerTier::from_fn(|t| battery::run_time(energy[t], power[t]));
+    let c_rate = power.map(|p| battery::c_rate(battery::current(p, pack_v), capacity));
     let rating = bat.max_discharge.unwrap_or(chem.max_c.0);
     let stored: Energy = pack_v * capacity;
     let pack_specific = bat
@@ -117,12 +118,11 @@ pub fn check(claim: &Claim) -> Finding {
         claim
             .claim
             .flight_time
-            .is_none_or(|ft| endurance[t as usize] >= ft * (1.0 - 1e-9))
+            .is_none_or(|ft| endurance[t] >= ft * (1.0 - 1e-9))
     };
     let specific_ok =
         |t: Tier| pack_specific.is_none_or(|e| e <= specific_energy(chem, t) * (1.0 + 1e-9));
-    let current_ok =
-        |t: Tier| t == Tier::PhysicalLimit || c_rate[t as usize] <= rating * (1.0 + 1e-9);
+    let current_ok = |t: Tier| t == Tier::PhysicalLimit || c_rate[t] <= rating * (1.0 + 1e-9);
     let verdict = common::verdict_of(|t| time_ok(t) && specific_ok(t) && current_ok(t));
 
     let minutes = |t: Time| t.get::<minute>();
@@ -132,19 +132,19 @@ pub fn check(claim: &Claim) -> Finding {
         "hover_power",
         "Electrical power to hover",
         "W",
-        |t| power[t as usize].get::<watt>(),
+        |t| power[t].get::<watt>(),
     ));
     figures.extend(per_tier(
         "usable_energy",
         "Usable battery energy",
         "Wh",
-        |t| energy[t as usize].get::<watt_hour>(),
+        |t| energy[t].get::<watt_hour>(),
     ));
     figures.extend(per_tier(
         "endurance",
         "Hover time on this battery",
         "min",
-        |t| minutes(endurance[t as usize]),
+        |t| minutes(endurance[t]),
     ));
     if let Some(ft) = claim.claim.flight_time {
         figures.push(fixed(
@@ -166,7 +166,7 @@ pub fn check(claim: &Claim) -> Finding {
         "discharge_rate",
         "Battery discharge rate in hover",
         "C",
-        |t| c_rate[t as usize],
+        |t| c_rate[t],
     ));
     figures.push(fixed(
         "discharge_rating",
@@ -180,7 +180,9 @@ pub fn check(claim: &Claim) -> Finding {
         let best_mass = airframe * 2.0;
         (
             best_mass,
-            Tier::ALL.map(|t| frame.endurance_on(airframe, best_mass, specific_energy(chem, t), t)),
+            PerTier::from_fn(|t| {
+                frame.endurance_on(airframe, best_mass, specific_energy(chem, t), t)
+            }),
         )
     });
     if let Some((best_mass, times)) = ceiling {
@@ -188,7 +190,7 @@ pub fn check(claim: &Claim) -> Finding {
             "endurance_ceiling",
             "Longest hover any battery of this chemistry gives this airframe",
             "min",
-            |t| minutes(times[t as usize]),
+            |t| minutes(times[t]),
         ));
         figures.push(fixed(
             "best_battery_mass",
@@ -218,18 +220,18 @@ pub fn check(claim: &Claim) -> Finding {
                 Tier::BestPractice => "With the best hardware of its class,",
                 Tier::Typical => "With typical parts,",
             },
-            Sig3(minutes(endurance[t as usize])),
+            Sig3(minutes(endurance[t])),
             Sig3(claim.claim.flight_time.map_or(0.0, minutes)),
         ),
         Some(t) => format!(
             "Hovering draws {} C from the battery, above its {} C rating ({}).",
-            Sig3(c_rate[t as usize]),
+            Sig3(c_rate[t]),
             Sig3(rating),
             t.label(),
         ),
         None => format!(
             "The battery gives about {} min of hover with typical parts{}.",
-            Sig3(minutes(endurance[Tier::Typical as usize])),
+            Sig3(minutes(endurance[Tier::Typical])),
             claim.claim.flight_time.map_or(String::new(), |ft| format!(
                 ", enough for the claimed {} min",
                 Sig3(minutes(ft))
@@ -247,12 +249,12 @@ pub fn check(claim: &Claim) -> Finding {
     ));
     assumptions.push(format!(
         "Figure of merit {} for a {} mm rotor; drive efficiency {} ({}); usable capacity {}; avionics {} W (physical limit / best practice / typical).",
-        tier_list(Tier::ALL.map(|t| tiers::figure_of_merit(t, diameter))),
+        PerTier::from_fn(|t| tiers::figure_of_merit(t, diameter)),
         Sig3(diameter.get::<uom::si::length::millimeter>()),
-        tier_list(Tier::ALL.map(|t| Sig3(tiers::drive_efficiency(t, frame.drive)))),
+        PerTier::from_fn(|t| Sig3(tiers::drive_efficiency(t, frame.drive))),
         frame.drive.id(),
-        tier_list(DEPTH_OF_DISCHARGE.values),
-        tier_list(AVIONICS_POWER.values),
+        DEPTH_OF_DISCHARGE.values,
+        AVIONICS_POWER.values,
     ));
     assumptions.push(
         "Hover only, in still air: climbing, manoeuvring and wind all cost more.".to_string(),
@@ -309,7 +311,7 @@ fn would_take(
     pack_mass: Mass,
     pack_v: ElectricPotential,
     time_ok: &dyn Fn(Tier) -> bool,
-    ceiling: Option<(Mass, [Time; 3])>,
+    ceiling: Option<(Mass, PerTier<Time>)>,
 ) -> String {
     let Some(ft) = claim.claim.flight_time else {
         return "Nothing to meet: no flight time is claimed.".to_string();
@@ -322,11 +324,11 @@ fn would_take(
             .to_string();
     };
     let e = specific_energy(chem, Tier::Typical);
-    if times[Tier::Typical as usize] < ft {
+    if times[Tier::Typical] < ft {
         return format!(
             "No {} battery makes it with typical parts: the longest hover for this airframe is about {} min, with a {} g battery. Lighter parts or larger rotors are needed.",
             chem.id,
-            Sig3(times[Tier::Typical as usize].get::<minute>()),
+            Sig3(times[Tier::Typical].get::<minute>()),
             Sig3(best_mass.get::<gram>()),
         );
     }
@@ -345,7 +347,7 @@ fn would_take(
     let take_off = airframe + hi;
     // The heavier craft must still be lifted: say so when the rotors would fall short.
     let short_of_thrust = thrust_margin::estimate(claim, &frame.air)
-        .map(|est| est.available[Tier::Typical as usize] * (f64::from(claim.rotors.count) * 0.7))
+        .map(|est| est.available[Tier::Typical] * (f64::from(claim.rotors.count) * 0.7))
         .filter(|hover_limit| take_off * frame.air.gravity > *hover_limit);
     let short_of_thrust = short_of_thrust.map_or(String::new(), |hover_limit| {
         format!(

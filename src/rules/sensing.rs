@@ -15,11 +15,12 @@ use uom::si::{
     moment_of_inertia::kilogram_square_meter, time::second,
 };
 
-use super::common::{self, fixed, per_tier, tier_list};
-use crate::catalog::tiers::{Tier, ACCEL_BIAS, GYRO_DRIFT, LEVEL_ERROR, THRUST_MISMATCH};
+use super::common::{self, fixed, per_tier};
+use crate::catalog::tiers::{ACCEL_BIAS, GYRO_DRIFT, LEVEL_ERROR, THRUST_MISMATCH};
 use crate::claim::{Claim, PositionSensor};
 use crate::physics::{body, control};
 use crate::report::{Figure, Finding, Sig3, Verdict};
+use crate::tier::{PerTier, Tier};
 
 pub const ID: &str = "sensing";
 pub const TITLE: &str = "Sensing and stabilisation";
@@ -112,8 +113,8 @@ fn time_to_drift(accel: Acceleration) -> Time {
 
 /// Judges a drift time per tier against the hold time: failing best practice is
 /// implausible, typical doubtful; no law is broken, so never impossible.
-fn judge_drift(drift: [Time; 3], hold: Time) -> Verdict {
-    common::verdict_of(|t| t == Tier::PhysicalLimit || drift[t as usize] >= hold)
+fn judge_drift(drift: PerTier<Time>, hold: Time) -> Verdict {
+    common::verdict_of(|t| t == Tier::PhysicalLimit || drift[t] >= hold)
 }
 
 pub fn check(claim: &Claim) -> Finding {
@@ -129,7 +130,7 @@ pub fn check(claim: &Claim) -> Finding {
     let mut assumptions = Vec::with_capacity(7);
     assumptions.push(format!(
         "Thrust mismatch {} of one rotor's hover thrust (physical limit / best practice / typical); {}.",
-        tier_list(THRUST_MISMATCH.values),
+        THRUST_MISMATCH.values,
         THRUST_MISMATCH.basis,
     ));
 
@@ -146,7 +147,7 @@ pub fn check(claim: &Claim) -> Finding {
             g.inertia.get::<kilogram_square_meter>(),
             "kg m^2",
         ));
-        Tier::ALL.map(|t| {
+        PerTier::from_fn(|t| {
             let moment: Torque = (w / n * THRUST_MISMATCH.at(t) * g.lever).into();
             let alpha = body::angular_acceleration(moment, g.inertia);
             body::time_to_turn(Angle::new::<degree>(TIP_ANGLE_DEG), alpha)
@@ -157,7 +158,7 @@ pub fn check(claim: &Claim) -> Finding {
             "time_to_tip",
             "Time to tip 30 deg from a thrust mismatch",
             "s",
-            |t| tip[t as usize].get::<second>(),
+            |t| tip[t].get::<second>(),
         ));
         figures.push(fixed(
             "reaction_time",
@@ -183,12 +184,12 @@ pub fn check(claim: &Claim) -> Finding {
         }),
         (false, Some(false)) => match tip {
             Some(tip) => {
-                let v = common::verdict_of(|t| t == Tier::PhysicalLimit || tip[t as usize] >= catch);
+                let v = common::verdict_of(|t| t == Tier::PhysicalLimit || tip[t] >= catch);
                 parts.push(Part {
                     verdict: v,
                     says: format!(
                         "With no gyroscope the pilot must catch every tip by hand: it tips 30 deg in about {} s, against a reaction time of {REACTION_S} s.",
-                        Sig3(tip[Tier::Typical as usize].get::<second>()),
+                        Sig3(tip[Tier::Typical].get::<second>()),
                     )
                     .into(),
                     fix: (v != Verdict::Consistent).then_some("a rate gyroscope in a stabilising loop"),
@@ -211,19 +212,19 @@ pub fn check(claim: &Claim) -> Finding {
     if c.hands_free && s.gyroscope == Some(true) {
         match s.accelerometer {
             Some(false) => {
-                let drift = Tier::ALL.map(|t| {
+                let drift = PerTier::from_fn(|t| {
                     let rate = GYRO_DRIFT.at(t); // deg per hour
                     Time::new::<second>(if rate > 0.0 { ATTITUDE_ERROR_DEG / rate * 3600.0 } else { f64::INFINITY })
                 });
                 figures.extend(per_tier("attitude_drift_time", "Time for the gyro alone to drift 5 deg", "s", |t| {
-                    drift[t as usize].get::<second>()
+                    drift[t].get::<second>()
                 }));
                 let v = judge_drift(drift, hold);
                 parts.push(Part {
                     verdict: v,
                     says: format!(
                         "Hands-free with a gyroscope but no accelerometer, its idea of level drifts 5 deg in about {} s with typical parts.",
-                        Sig3(drift[Tier::Typical as usize].get::<second>()),
+                        Sig3(drift[Tier::Typical].get::<second>()),
                     )
                     .into(),
                     fix: (v != Verdict::Consistent).then_some("an accelerometer to keep the level reference"),
@@ -246,7 +247,7 @@ pub fn check(claim: &Claim) -> Finding {
         );
     if (c.altitude_hold || c.position_hold) && !height_sensor {
         let v = if s.accelerometer == Some(true) {
-            let drift = Tier::ALL.map(|t| {
+            let drift = PerTier::from_fn(|t| {
                 time_to_drift(Acceleration::new::<meter_per_second_squared>(
                     ACCEL_BIAS.at(t),
                 ))
@@ -255,14 +256,14 @@ pub fn check(claim: &Claim) -> Finding {
                 "height_drift_time",
                 "Time for height to drift 1 m without a height sensor",
                 "s",
-                |t| drift[t as usize].get::<second>(),
+                |t| drift[t].get::<second>(),
             ));
             let v = judge_drift(drift, hold);
             parts.push(Part {
                 verdict: v,
                 says: format!(
                     "It is said to hold its height with no height sensor; the accelerometer alone lets height drift 1 m in about {} s.",
-                    Sig3(drift[Tier::Typical as usize].get::<second>()),
+                    Sig3(drift[Tier::Typical].get::<second>()),
                 )
                 .into(),
                 fix: None,
@@ -288,7 +289,7 @@ pub fn check(claim: &Claim) -> Finding {
         Some(PositionSensor::Gnss | PositionSensor::OpticalFlow | PositionSensor::Vision)
     );
     if c.position_hold && !position_sensor {
-        let drift = Tier::ALL.map(|t| {
+        let drift = PerTier::from_fn(|t| {
             let err = Angle::new::<degree>(LEVEL_ERROR.at(t));
             time_to_drift(body::tilt_acceleration(air.gravity, err))
         });
@@ -296,7 +297,7 @@ pub fn check(claim: &Claim) -> Finding {
             "position_drift_time",
             "Time to drift 1 m sideways without a position sensor",
             "s",
-            |t| drift[t as usize].get::<second>(),
+            |t| drift[t].get::<second>(),
         ));
         let v = if s.accelerometer == Some(true) {
             judge_drift(drift, hold)
@@ -308,7 +309,7 @@ pub fn check(claim: &Claim) -> Finding {
             says: format!(
                 "It is said to stay in place with no position sensor; a level error of {} deg slides it 1 m in about {} s.",
                 LEVEL_ERROR.at(Tier::Typical),
-                Sig3(drift[Tier::Typical as usize].get::<second>()),
+                Sig3(drift[Tier::Typical].get::<second>()),
             )
             .into(),
             fix: (v != Verdict::Consistent).then_some("a position sensor: optical flow with a range sensor indoors, satellite navigation outdoors"),

@@ -16,11 +16,12 @@ use uom::si::{
 };
 
 use super::common::{self, fixed, per_tier};
-use crate::catalog::tiers::{self, Tier, HOVER_FRACTION_MAX};
+use crate::catalog::tiers::{self, HOVER_FRACTION_MAX};
 use crate::catalog::{self, Drive, MotorClass};
 use crate::claim::{Claim, Layout};
 use crate::physics::atmosphere::{self, Air};
 use crate::physics::rotor;
+use crate::tier::{PerTier, Tier};
 use std::fmt::{self, Write as _};
 
 use crate::report::{Finding, Sig3, Verdict};
@@ -48,9 +49,9 @@ enum Basis {
 pub struct Estimate {
     basis: Basis,
     /// Available static thrust of one rotor at each tier, at the claim's air.
-    pub available: [Force; 3],
+    pub available: PerTier<Force>,
     /// Momentum-theory bound for one rotor at each tier, at the claim's air.
-    pub bound: Option<[Force; 3]>,
+    pub bound: Option<PerTier<Force>>,
     pub power: Option<(Power, bool)>,
     pub diameter: Option<(Length, bool)>,
     pub drive: Option<(Drive, bool)>,
@@ -59,7 +60,7 @@ pub struct Estimate {
 /// One rotor's maximum thrust at `tier`, in the claim's air; the control
 /// authority rule bounds each actuator by it.
 pub fn rotor_thrust(claim: &Claim, tier: Tier) -> Option<Force> {
-    estimate(claim, &common::air(claim)).map(|e| e.available[tier as usize])
+    estimate(claim, &common::air(claim)).map(|e| e.available[tier])
 }
 
 /// The momentum bound for one rotor, where disks are shared by coaxial pairs:
@@ -103,21 +104,21 @@ pub fn estimate(claim: &Claim, air: &Air) -> Option<Estimate> {
         .map(|d| (d, true))
         .or(power.map(|_| (Drive::Brushless, false)));
     let bound = match (power, diameter, drive) {
-        (Some((p, _)), Some((d, _)), Some((drive, _))) => Some(Tier::ALL.map(|t| {
+        (Some((p, _)), Some((d, _)), Some((drive, _))) => Some(PerTier::from_fn(|t| {
             let fm = tiers::figure_of_merit(t, d);
             bound_per_rotor(claim, air, d, p, fm, tiers::drive_efficiency(t, drive))
         })),
         _ => None,
     };
     let (basis, available) = match (r.max_thrust, class, bound) {
-        (Some(t), _, _) => (Basis::Stated(t), [t * density_ratio; 3]),
+        (Some(t), _, _) => (Basis::Stated(t), PerTier::from_fn(|_| t * density_ratio)),
         (None, Some(c), _) => {
-            let class_thrust = [c.best_thrust(), c.best_thrust(), c.typical_thrust()];
-            let available = Tier::ALL.map(|t| {
-                let from_class = class_thrust[t as usize] * density_ratio;
+            let class_thrust = PerTier::new(c.best_thrust(), c.best_thrust(), c.typical_thrust());
+            let available = PerTier::from_fn(|t| {
+                let from_class = class_thrust[t] * density_ratio;
                 match (t, bound) {
-                    (Tier::PhysicalLimit, Some(b)) => b[0].max(from_class),
-                    (_, Some(b)) => from_class.min(b[t as usize]),
+                    (Tier::PhysicalLimit, Some(b)) => b[t].max(from_class),
+                    (_, Some(b)) => from_class.min(b[t]),
                     (_, None) => from_class,
                 }
             });
@@ -161,14 +162,14 @@ pub fn check(claim: &Claim) -> Finding {
     };
     let n = f64::from(claim.rotors.count);
     let w = common::weight(claim, &air);
-    let total = |t: Tier| est.available[t as usize] * n;
+    let total = |t: Tier| est.available[t] * n;
     let fraction = |t: Tier| (w / total(t)).value;
 
     // A stated thrust is checked against the bound at sea level, where it was measured.
     let stated_bound = match (est.basis, est.power, est.diameter, est.drive) {
         (Basis::Stated(_), Some((p, _)), Some((d, _)), Some((drive, _))) => {
             let sea = atmosphere::isa(Length::new::<millimeter>(0.0), None);
-            Some(Tier::ALL.map(|t| {
+            Some(PerTier::from_fn(|t| {
                 let fm = tiers::figure_of_merit(t, d);
                 bound_per_rotor(claim, &sea, d, p, fm, tiers::drive_efficiency(t, drive))
             }))
@@ -176,7 +177,7 @@ pub fn check(claim: &Claim) -> Finding {
         _ => None,
     };
     let stated_ok = |t: Tier| match (est.basis, stated_bound) {
-        (Basis::Stated(s), Some(b)) if t != Tier::Typical => s <= b[t as usize] * (1.0 + 1e-9),
+        (Basis::Stated(s), Some(b)) if t != Tier::Typical => s <= b[t] * (1.0 + 1e-9),
         _ => true,
     };
     let stated_fails = common::first_failure(stated_ok);
@@ -185,11 +186,7 @@ pub fn check(claim: &Claim) -> Finding {
         stated_ok(t) && fraction(t) <= HOVER_FRACTION_MAX.at(t) * (1.0 + 1e-9)
     });
 
-    let rotors_needed = |t: Tier| {
-        (w / (est.available[t as usize] * SIZING_FRACTION))
-            .value
-            .ceil()
-    };
+    let rotors_needed = |t: Tier| (w / (est.available[t] * SIZING_FRACTION)).value.ceil();
     // Two fixed figures and five per tier.
     let mut figures = Vec::with_capacity(17);
     figures.push(fixed(
@@ -208,7 +205,7 @@ pub fn check(claim: &Claim) -> Finding {
         "thrust_per_rotor",
         "Maximum thrust of one rotor",
         "N",
-        |t| est.available[t as usize].get::<newton>(),
+        |t| est.available[t].get::<newton>(),
     ));
     figures.extend(per_tier(
         "thrust_available",
@@ -233,7 +230,7 @@ pub fn check(claim: &Claim) -> Finding {
             "thrust_bound",
             "Momentum-theory bound on the thrust of all rotors for their power",
             "N",
-            |t| (b[t as usize] * n).get::<newton>(),
+            |t| (b[t] * n).get::<newton>(),
         ));
     }
 
@@ -264,7 +261,7 @@ fn headline(
     est: &Estimate,
     verdict: Verdict,
     stated_fails: Option<Tier>,
-    stated_bound: Option<[Force; 3]>,
+    stated_bound: Option<PerTier<Force>>,
     w: Force,
     total: &dyn Fn(Tier) -> Force,
     fraction: &dyn Fn(Tier) -> f64,
@@ -287,7 +284,7 @@ fn headline(
             Lift(s),
             Sig3(p.get::<watt>()),
             Sig3(d.get::<millimeter>()),
-            Lift(b[tier as usize]),
+            Lift(b[tier]),
         );
     }
     let percent = Sig3(100.0 * fraction(Tier::Typical));
@@ -322,7 +319,7 @@ fn class_typical(claim: &Claim, class: &MotorClass, air: &Air) -> Force {
 
 fn would_take(claim: &Claim, est: &Estimate, w: Force, air: &Air) -> String {
     let n = claim.rotors.count;
-    let typical = est.available[Tier::Typical as usize];
+    let typical = est.available[Tier::Typical];
     let needed = (w / (typical * SIZING_FRACTION)).value.ceil() as u64;
     let lightest = typical * (f64::from(n) * SIZING_FRACTION);
     let hover_ok = w <= lightest;
@@ -562,8 +559,12 @@ mod tests {
     fn tier_figures_never_grow_from_the_physical_limit_to_typical() {
         for m in catalog::MOTORS {
             let c = sheet("100 g", &format!("count = 4\nmotor = \"{}\"", m.id));
-            let t = Tier::ALL.map(|t| rotor_thrust(&c, t).unwrap());
-            assert!(t[0] >= t[1] && t[1] >= t[2], "{}", m.id);
+            let t = PerTier::from_fn(|t| rotor_thrust(&c, t).unwrap());
+            assert!(
+                t.physical_limit >= t.best_practice && t.best_practice >= t.typical,
+                "{}",
+                m.id
+            );
         }
     }
 }

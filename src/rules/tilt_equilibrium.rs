@@ -14,12 +14,13 @@ use uom::si::{
 
 use super::common::{self, fixed, per_tier};
 use super::thrust_margin::{self, Lift};
-use crate::catalog::tiers::{Tier, BODY_DRAG};
+use crate::catalog::tiers::BODY_DRAG;
 use crate::claim::{BoxSize, Claim, Mount};
 use crate::physics::{body, drag};
 use std::fmt::Write as _;
 
 use crate::report::{Finding, Sig3, Verdict};
+use crate::tier::{PerTier, Tier};
 
 pub const ID: &str = "tilt-equilibrium";
 pub const TITLE: &str = "Holding the claimed attitude";
@@ -99,16 +100,16 @@ pub fn check(claim: &Claim) -> Finding {
     let level = tilt.get::<degree>() <= 1e-9;
     let thrust_ok = |t: Tier| {
         level
-            || est.as_ref().is_none_or(|e| {
-                e.available[t as usize] * f64::from(r.count) >= thrust_needed * (1.0 - 1e-9)
-            })
+            || est
+                .as_ref()
+                .is_none_or(|e| e.available[t] * f64::from(r.count) >= thrust_needed * (1.0 - 1e-9))
     };
     let still_air = claim.conditions.wind.get::<meter_per_second>() <= 0.0;
     let balanced = residual.get::<degree>() <= 1e-9;
 
     // The headwind that would hold it, where the body size is known.
     let headwind = claim.craft.size.map(|size| {
-        Tier::ALL.map(|t| {
+        PerTier::from_fn(|t| {
             let area = match t {
                 Tier::PhysicalLimit => largest_area(&size),
                 _ => pitched_area(&size, residual),
@@ -121,17 +122,17 @@ pub fn check(claim: &Claim) -> Finding {
             "headwind_needed",
             "Steady headwind whose drag balances the sideways force",
             "m/s",
-            |t| v[t as usize].get::<meter_per_second>(),
+            |t| v[t].get::<meter_per_second>(),
         ));
     }
     let wind_ok = |t: Tier| match headwind {
         _ if balanced => true,
         _ if still_air => false,
-        Some(v) => claim.conditions.wind >= v[t as usize] * (1.0 - 1e-9),
+        Some(v) => claim.conditions.wind >= v[t] * (1.0 - 1e-9),
         None => true,
     };
     let wind_unknown = !balanced && !still_air && headwind.is_none();
-    let verdict = if wind_unknown && (0..3).all(|i| thrust_ok(Tier::ALL[i])) {
+    let verdict = if wind_unknown && Tier::ALL.into_iter().all(thrust_ok) {
         Verdict::NotAssessed
     } else {
         common::verdict_of(|t| wind_ok(t) && thrust_ok(t))
@@ -156,7 +157,7 @@ pub fn check(claim: &Claim) -> Finding {
         Verdict::Consistent => {
             format!("The stated {wind} m/s wind can hold a {deg} deg tilt with typical drag.")
         }
-        _ if !(0..3).all(|i| thrust_ok(Tier::ALL[i])) => format!(
+        _ if !Tier::ALL.into_iter().all(thrust_ok) => format!(
             "Holding the weight at {deg} deg takes {} of thrust, more than the rotors give at the {} tier.",
             Lift(thrust_needed),
             common::first_failure(thrust_ok).map_or("", |t| t.label()),
@@ -164,7 +165,7 @@ pub fn check(claim: &Claim) -> Finding {
         _ => format!(
             "The stated wind of {wind} m/s is short of the {} m/s whose drag would hold a {deg} deg tilt.",
             headwind.map_or("?".to_string(), |v| {
-                Sig3(v[Tier::Typical as usize].get::<meter_per_second>()).to_string()
+                Sig3(v[Tier::Typical].get::<meter_per_second>()).to_string()
             }),
         ),
     };
@@ -177,8 +178,8 @@ pub fn check(claim: &Claim) -> Finding {
             let _ = write!(
                 ways,
                 "a steady headwind of about {} m/s (typical drag; {} m/s with the most drag a body can have); ",
-                Sig3(v[Tier::Typical as usize].get::<meter_per_second>()),
-                Sig3(v[Tier::PhysicalLimit as usize].get::<meter_per_second>()),
+                Sig3(v[Tier::Typical].get::<meter_per_second>()),
+                Sig3(v[Tier::PhysicalLimit].get::<meter_per_second>()),
             );
         }
         let _ = write!(
