@@ -4,6 +4,7 @@
 //! other tools read the figure keys and verdict ids, so they change only with
 //! a new schema id.
 
+pub mod keys;
 pub mod numbers;
 mod text;
 
@@ -231,14 +232,14 @@ mod tests {
             headline: "h".into(),
             figures: vec![
                 Figure {
-                    key: "hover_fraction",
+                    key: keys::HOVER_FRACTION,
                     label: "l".into(),
                     tier: Some(Tier::Typical),
                     value: 5.1,
                     unit: "1",
                 },
                 Figure {
-                    key: "weight",
+                    key: keys::WEIGHT,
                     label: "w".into(),
                     tier: None,
                     value: 3.0,

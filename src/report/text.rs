@@ -155,6 +155,7 @@ pub fn render_text(report: &Report, color: bool) -> String {
 #[cfg(test)]
 mod tests {
     use super::*;
+    use crate::report::keys;
     use crate::report::Finding;
 
     #[test]
@@ -175,7 +176,7 @@ mod tests {
             figures: Tier::ALL
                 .iter()
                 .map(|&t| Figure {
-                    key: "hover_fraction",
+                    key: keys::HOVER_FRACTION,
                     label: "Share".into(),
                     tier: Some(t),
                     value: PerTier::new(0.5, 0.6, 0.7)[t],

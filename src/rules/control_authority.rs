@@ -24,7 +24,7 @@ use super::thrust_margin;
 use crate::catalog::tiers::{REACTIVE_TORQUE, THRUST_MISMATCH};
 use crate::claim::{Claim, Layout, Mount, Spin};
 use crate::physics::control::{self, Authority, Axis, Hover, Placement};
-use crate::report::{Figure, Finding, Sig3, Verdict};
+use crate::report::{keys, Figure, Finding, Sig3, Verdict};
 use crate::tier::{PerTier, Tier};
 
 pub const ID: &str = "control-authority";
@@ -35,12 +35,7 @@ pub const METHOD: &str = "Each actuator's effect on thrust, roll, pitch and yaw 
 /// sheet: the intact ACAI for up to about 40 actuators, the failure table for fewer.
 const SEARCH_BUDGET: f64 = 4e6;
 /// Figure keys of the worst ACAI with one, two, ... rotors lost.
-const LOST_KEYS: [&str; 4] = [
-    "acai_one_rotor_lost",
-    "acai_two_rotors_lost",
-    "acai_three_rotors_lost",
-    "acai_four_rotors_lost",
-];
+const LOST_KEYS: [&str; 4] = keys::ACAI_ROTORS_LOST;
 
 /// What the rule works out from a claim; shared with [`layout_view`].
 struct Analysis {
@@ -265,7 +260,7 @@ fn assess(claim: &Claim, an: &Analysis) -> Finding {
     let n = an.placements.len();
     let a = &an.authority;
     let rank = fixed(
-        "rank",
+        keys::RANK,
         "Axes the actuators can command independently (rank of the control-effectiveness matrix, of 4)",
         a.rank as f64,
         "1",
@@ -350,13 +345,13 @@ fn assess(claim: &Claim, an: &Analysis) -> Finding {
     let mut figures = Vec::with_capacity(2 + 3 * (1 + LOST_KEYS.len()));
     figures.push(rank);
     figures.extend(per_tier(
-        "acai",
+        keys::ACAI,
         "Available control authority index, intact (N and N m)",
         "N, N m",
         |t| intact[t],
     ));
     figures.push(tiered(
-        "mismatch_moment",
+        keys::MISMATCH_MOMENT,
         "Moment of a typical thrust mismatch, the margin the ACAI must clear",
         Tier::Typical,
         an.margin(Tier::Typical, &[]),
@@ -562,7 +557,7 @@ mod tests {
     }
 
     fn acai(f: &Finding, t: Tier) -> f64 {
-        f.figure("acai", Some(t)).map_or(f64::NAN, |f| f.value)
+        f.figure(keys::ACAI, Some(t)).map_or(f64::NAN, |f| f.value)
     }
 
     #[test]
@@ -572,11 +567,11 @@ mod tests {
             "",
         ));
         assert_eq!(f.verdict, Verdict::Consistent, "{}", f.headline);
-        assert_eq!(f.figure("rank", None).unwrap().value, 4.0);
+        assert_eq!(f.figure(keys::RANK, None).unwrap().value, 4.0);
         assert!(Tier::ALL.into_iter().all(|t| acai(&f, t) > 0.0));
         // du-2015: a quadrotor that loses any rotor has ACAI < 0.
         let lost = f
-            .figure("acai_one_rotor_lost", Some(Tier::Typical))
+            .figure(keys::ACAI_ONE_ROTOR_LOST, Some(Tier::Typical))
             .unwrap();
         assert!(lost.value < 0.0);
         assert!(f.headline.contains("Losing rotor"), "{}", f.headline);
@@ -590,7 +585,7 @@ mod tests {
             "",
         ));
         assert_eq!(f.verdict, Verdict::Impossible);
-        assert_eq!(f.figure("rank", None).unwrap().value, 2.0);
+        assert_eq!(f.figure(keys::RANK, None).unwrap().value, 2.0);
         assert!(f.headline.contains("pitch and yaw"), "{}", f.headline);
         assert!(f.headline.contains("roll and yaw share"), "{}", f.headline);
         assert!(f.would_take.contains("tilt"), "{}", f.would_take);
@@ -602,7 +597,7 @@ mod tests {
         assert_eq!(f.verdict, Verdict::Impossible);
         let f = check(&sheet("layout = \"quad-x\"\narm = \"225 mm\"", ""));
         assert_eq!(f.verdict, Verdict::NotAssessed);
-        assert_eq!(f.figure("rank", None).unwrap().value, 4.0);
+        assert_eq!(f.figure(keys::RANK, None).unwrap().value, 4.0);
         assert!(f.headline.contains("rotors.max_thrust"), "{}", f.headline);
     }
 
@@ -612,14 +607,14 @@ mod tests {
         let bicopter = "layout = \"side-by-side\"\narm = \"200 mm\"\nmax_thrust = \"900 g\"\nmount = \"tilting\"\ntilt_range = \"30 deg\"";
         let flat = check(&sheet(bicopter, ""));
         assert_eq!(flat.verdict, Verdict::Impossible);
-        assert_eq!(flat.figure("rank", None).unwrap().value, 3.0);
+        assert_eq!(flat.figure(keys::RANK, None).unwrap().value, 3.0);
         assert!(
             flat.would_take.contains("rotors.height"),
             "{}",
             flat.would_take
         );
         let raised = check(&sheet(&format!("{bicopter}\nheight = \"60 mm\""), ""));
-        assert_eq!(raised.figure("rank", None).unwrap().value, 4.0);
+        assert_eq!(raised.figure(keys::RANK, None).unwrap().value, 4.0);
         assert!(acai(&raised, Tier::Typical) > 0.0);
         assert_eq!(raised.verdict, Verdict::Consistent, "{}", raised.headline);
     }
@@ -650,7 +645,7 @@ mod tests {
         );
         let f = check(&sheet(&custom, ""));
         assert_eq!(f.verdict, Verdict::Impossible);
-        assert_eq!(f.figure("rank", None).unwrap().value, 3.0);
+        assert_eq!(f.figure(keys::RANK, None).unwrap().value, 3.0);
         assert!(f.headline.contains("yaw independently"), "{}", f.headline);
         assert!(f.would_take.contains("yaw servo"), "{}", f.would_take);
     }
@@ -669,7 +664,7 @@ mod tests {
             at(400, 100, "ccw")
         );
         let f = check(&sheet(&custom, ""));
-        assert_eq!(f.figure("rank", None).unwrap().value, 4.0);
+        assert_eq!(f.figure(keys::RANK, None).unwrap().value, 4.0);
         assert_eq!(f.verdict, Verdict::Impossible, "{}", f.headline);
         assert!(acai(&f, Tier::PhysicalLimit) < 0.0);
     }
@@ -701,7 +696,7 @@ mod tests {
         assert_eq!(f.verdict, Verdict::Doubtful, "{}", f.headline);
         assert!(acai(&f, Tier::Typical) > 0.0);
         let margin = f
-            .figure("mismatch_moment", Some(Tier::Typical))
+            .figure(keys::MISMATCH_MOMENT, Some(Tier::Typical))
             .unwrap()
             .value;
         assert!(acai(&f, Tier::Typical) < margin);
@@ -720,11 +715,11 @@ mod tests {
         let f = check(&sheet(hex, ""));
         assert_eq!(f.verdict, Verdict::Consistent, "{}", f.headline);
         let lost = f
-            .figure("acai_one_rotor_lost", Some(Tier::PhysicalLimit))
+            .figure(keys::ACAI_ONE_ROTOR_LOST, Some(Tier::PhysicalLimit))
             .unwrap();
         assert!(lost.value.abs() < 1e-9);
         assert!(f
-            .figure("acai_two_rotors_lost", Some(Tier::Typical))
+            .figure(keys::ACAI_TWO_ROTORS_LOST, Some(Tier::Typical))
             .is_some());
     }
 
@@ -806,6 +801,6 @@ mod tests {
             "",
         ));
         assert_eq!(f.verdict, Verdict::NotAssessed, "{}", f.headline);
-        assert_eq!(f.figure("rank", None).unwrap().value, 4.0);
+        assert_eq!(f.figure(keys::RANK, None).unwrap().value, 4.0);
     }
 }

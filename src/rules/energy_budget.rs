@@ -23,7 +23,7 @@ use crate::catalog::{self, Chemistry, Drive};
 use crate::claim::{Claim, Layout};
 use crate::physics::atmosphere::Air;
 use crate::physics::{battery, rotor};
-use crate::report::{Finding, Sig3};
+use crate::report::{keys, Finding, Sig3};
 use crate::tier::{PerTier, Tier};
 
 pub const ID: &str = "energy-budget";
@@ -129,26 +129,26 @@ pub fn check(claim: &Claim) -> Finding {
     // Five kinds of figure per tier and four fixed ones at most.
     let mut figures = Vec::with_capacity(19);
     figures.extend(per_tier(
-        "hover_power",
+        keys::HOVER_POWER,
         "Electrical power to hover",
         "W",
         |t| power[t].get::<watt>(),
     ));
     figures.extend(per_tier(
-        "usable_energy",
+        keys::USABLE_ENERGY,
         "Usable battery energy",
         "Wh",
         |t| energy[t].get::<watt_hour>(),
     ));
     figures.extend(per_tier(
-        "endurance",
+        keys::ENDURANCE,
         "Hover time on this battery",
         "min",
         |t| minutes(endurance[t]),
     ));
     if let Some(ft) = claim.claim.flight_time {
         figures.push(fixed(
-            "claimed_flight_time",
+            keys::CLAIMED_FLIGHT_TIME,
             "Claimed flight time",
             minutes(ft),
             "min",
@@ -156,20 +156,20 @@ pub fn check(claim: &Claim) -> Finding {
     }
     if let Some(e) = pack_specific {
         figures.push(fixed(
-            "battery_specific_energy",
+            keys::BATTERY_SPECIFIC_ENERGY,
             "Energy per kilogram of the stated battery",
             e,
             "Wh/kg",
         ));
     }
     figures.extend(per_tier(
-        "discharge_rate",
+        keys::DISCHARGE_RATE,
         "Battery discharge rate in hover",
         "C",
         |t| c_rate[t],
     ));
     figures.push(fixed(
-        "discharge_rating",
+        keys::DISCHARGE_RATING,
         "Battery's continuous discharge rating",
         rating,
         "C",
@@ -187,13 +187,13 @@ pub fn check(claim: &Claim) -> Finding {
     });
     if let Some((best_mass, times)) = ceiling {
         figures.extend(per_tier(
-            "endurance_ceiling",
+            keys::ENDURANCE_CEILING,
             "Longest hover any battery of this chemistry gives this airframe",
             "min",
             |t| minutes(times[t]),
         ));
         figures.push(fixed(
-            "best_battery_mass",
+            keys::BEST_BATTERY_MASS,
             "Battery mass that gives the longest hover (twice the airframe)",
             best_mass.get::<gram>(),
             "g",
@@ -385,19 +385,22 @@ mod tests {
         ));
         let f = check(&c);
         let p = f
-            .figure("hover_power", Some(Tier::PhysicalLimit))
+            .figure(keys::HOVER_POWER, Some(Tier::PhysicalLimit))
             .unwrap()
             .value;
         assert!((p - 43.58).abs() < 0.05, "{p}");
         // Usable 4 x 3.7 x 5 Ah = 74 Wh -> 101.9 min at the physical limit.
         let t = f
-            .figure("endurance", Some(Tier::PhysicalLimit))
+            .figure(keys::ENDURANCE, Some(Tier::PhysicalLimit))
             .unwrap()
             .value;
         assert!((t - 74.0 / 43.58 * 60.0).abs() < 0.2, "{t}");
         // The same craft at typical values: FM 0.65 (254 mm), eta 0.76, 1 W avionics:
         // 43.58 / 0.494 + 1 = 89.2 W; 74 x 0.8 = 59.2 Wh -> 39.8 min.
-        let t = f.figure("endurance", Some(Tier::Typical)).unwrap().value;
+        let t = f
+            .figure(keys::ENDURANCE, Some(Tier::Typical))
+            .unwrap()
+            .value;
         assert!((t - 39.8).abs() < 0.2, "{t}");
     }
 
@@ -425,7 +428,7 @@ mod tests {
         ));
         let f = check(&c);
         assert_eq!(f.verdict, Verdict::Impossible);
-        let e = f.figure("battery_specific_energy", None).unwrap().value;
+        let e = f.figure(keys::BATTERY_SPECIFIC_ENERGY, None).unwrap().value;
         assert!((e - 493.3).abs() < 0.1);
     }
 
@@ -456,7 +459,7 @@ mod tests {
         ));
         let f = check(&c);
         assert!(
-            f.figure("discharge_rate", Some(Tier::Typical))
+            f.figure(keys::DISCHARGE_RATE, Some(Tier::Typical))
                 .unwrap()
                 .value
                 > 20.0

@@ -19,7 +19,7 @@ use super::common::{self, fixed, per_tier};
 use crate::catalog::tiers::{ACCEL_BIAS, GYRO_DRIFT, LEVEL_ERROR, THRUST_MISMATCH};
 use crate::claim::{Claim, PositionSensor};
 use crate::physics::{body, control};
-use crate::report::{Figure, Finding, Sig3, Verdict};
+use crate::report::{keys, Figure, Finding, Sig3, Verdict};
 use crate::tier::{PerTier, Tier};
 
 pub const ID: &str = "sensing";
@@ -142,7 +142,7 @@ pub fn check(claim: &Claim) -> Finding {
             Sig3(g.lever.get::<uom::si::length::millimeter>()),
         ));
         figures.push(fixed(
-            "moment_of_inertia",
+            keys::MOMENT_OF_INERTIA,
             "Moment of inertia about the tipping axis",
             g.inertia.get::<kilogram_square_meter>(),
             "kg m^2",
@@ -155,13 +155,13 @@ pub fn check(claim: &Claim) -> Finding {
     });
     if let Some(tip) = tip {
         figures.extend(per_tier(
-            "time_to_tip",
+            keys::TIME_TO_TIP,
             "Time to tip 30 deg from a thrust mismatch",
             "s",
             |t| tip[t].get::<second>(),
         ));
         figures.push(fixed(
-            "reaction_time",
+            keys::REACTION_TIME,
             "Human reaction time",
             REACTION_S,
             "s",
@@ -216,7 +216,7 @@ pub fn check(claim: &Claim) -> Finding {
                     let rate = GYRO_DRIFT.at(t); // deg per hour
                     Time::new::<second>(if rate > 0.0 { ATTITUDE_ERROR_DEG / rate * 3600.0 } else { f64::INFINITY })
                 });
-                figures.extend(per_tier("attitude_drift_time", "Time for the gyro alone to drift 5 deg", "s", |t| {
+                figures.extend(per_tier(keys::ATTITUDE_DRIFT_TIME, "Time for the gyro alone to drift 5 deg", "s", |t| {
                     drift[t].get::<second>()
                 }));
                 let v = judge_drift(drift, hold);
@@ -253,7 +253,7 @@ pub fn check(claim: &Claim) -> Finding {
                 ))
             });
             figures.extend(per_tier(
-                "height_drift_time",
+                keys::HEIGHT_DRIFT_TIME,
                 "Time for height to drift 1 m without a height sensor",
                 "s",
                 |t| drift[t].get::<second>(),
@@ -294,7 +294,7 @@ pub fn check(claim: &Claim) -> Finding {
             time_to_drift(body::tilt_acceleration(air.gravity, err))
         });
         figures.extend(per_tier(
-            "position_drift_time",
+            keys::POSITION_DRIFT_TIME,
             "Time to drift 1 m sideways without a position sensor",
             "s",
             |t| drift[t].get::<second>(),
@@ -376,7 +376,10 @@ mod tests {
         // M = 0.05 x (0.31 x 9.80665 / 2) x 0.07 = 5.3206e-3 N m (typical 5 % mismatch);
         // alpha = 29.92 rad/s^2; t = sqrt(2 x 0.5236 / 29.92) = 0.187 s (rigid-body).
         let f = check(&sheet("[sensing]\ngyroscope = true"));
-        let t = f.figure("time_to_tip", Some(Tier::Typical)).unwrap().value;
+        let t = f
+            .figure(keys::TIME_TO_TIP, Some(Tier::Typical))
+            .unwrap()
+            .value;
         assert!((t - 0.187).abs() < 0.002, "{t}");
     }
 
@@ -393,7 +396,10 @@ mod tests {
         let inertia = 0.31 * (0.16f64.powi(2) + 0.04f64.powi(2)) / 12.0;
         let moment = 0.05 * 0.31 * 9.806_65 / 4.0 * 0.1 * std::f64::consts::FRAC_1_SQRT_2;
         let expected = (2.0 * 30f64.to_radians() * inertia / moment).sqrt();
-        let t = f.figure("time_to_tip", Some(Tier::Typical)).unwrap().value;
+        let t = f
+            .figure(keys::TIME_TO_TIP, Some(Tier::Typical))
+            .unwrap()
+            .value;
         assert!((t - expected).abs() < 1e-9, "{t} vs {expected}");
     }
 
@@ -418,7 +424,12 @@ mod tests {
         )
         .unwrap();
         let f = check(&slow);
-        assert!(f.figure("time_to_tip", Some(Tier::Typical)).unwrap().value > 0.75);
+        assert!(
+            f.figure(keys::TIME_TO_TIP, Some(Tier::Typical))
+                .unwrap()
+                .value
+                > 0.75
+        );
         assert_eq!(f.verdict, Verdict::Consistent);
     }
 
@@ -429,7 +440,7 @@ mod tests {
             "[claim]\nhands_free = true\naltitude_hold = true\nflight_time = \"10 s\"\n[sensing]\ngyroscope = true\naccelerometer = true",
         ));
         let t = f
-            .figure("height_drift_time", Some(Tier::Typical))
+            .figure(keys::HEIGHT_DRIFT_TIME, Some(Tier::Typical))
             .unwrap()
             .value;
         assert!((t - 6.32).abs() < 0.01);

@@ -24,7 +24,7 @@ use crate::physics::rotor;
 use crate::tier::{PerTier, Tier};
 use std::fmt::{self, Write as _};
 
-use crate::report::{Finding, Sig3, Verdict};
+use crate::report::{keys, Finding, Sig3, Verdict};
 
 pub const ID: &str = "thrust-margin";
 pub const TITLE: &str = "Thrust and control margin";
@@ -190,44 +190,44 @@ pub fn check(claim: &Claim) -> Finding {
     // Two fixed figures and five per tier.
     let mut figures = Vec::with_capacity(17);
     figures.push(fixed(
-        "weight",
+        keys::WEIGHT,
         "Weight of the craft",
         w.get::<newton>(),
         "N",
     ));
     figures.push(fixed(
-        "air_density",
+        keys::AIR_DENSITY,
         "Air density (ISA at the stated altitude and temperature)",
         air.density.get::<kilogram_per_cubic_meter>(),
         "kg/m^3",
     ));
     figures.extend(per_tier(
-        "thrust_per_rotor",
+        keys::THRUST_PER_ROTOR,
         "Maximum thrust of one rotor",
         "N",
         |t| est.available[t].get::<newton>(),
     ));
     figures.extend(per_tier(
-        "thrust_available",
+        keys::THRUST_AVAILABLE,
         "Maximum thrust of all rotors",
         "N",
         |t| total(t).get::<newton>(),
     ));
     figures.extend(per_tier(
-        "hover_fraction",
+        keys::HOVER_FRACTION,
         "Share of maximum thrust needed to hover",
         "1",
         fraction,
     ));
     figures.extend(per_tier(
-        "rotors_needed",
+        keys::ROTORS_NEEDED,
         "Rotors of this kind needed to hover at 70 % of maximum thrust",
         "1",
         rotors_needed,
     ));
     if let Some(b) = est.bound {
         figures.extend(per_tier(
-            "thrust_bound",
+            keys::THRUST_BOUND,
             "Momentum-theory bound on the thrust of all rotors for their power",
             "N",
             |t| (b[t] * n).get::<newton>(),
@@ -441,7 +441,7 @@ mod tests {
         );
         let f = check(&c);
         let needed = f
-            .figure("rotors_needed", Some(Tier::Typical))
+            .figure(keys::ROTORS_NEEDED, Some(Tier::Typical))
             .unwrap()
             .value;
         assert_eq!(needed, 15.0);
@@ -459,7 +459,7 @@ mod tests {
         let f = check(&c);
         assert_eq!(f.verdict, Verdict::Impossible);
         let limit = f
-            .figure("thrust_per_rotor", Some(Tier::PhysicalLimit))
+            .figure(keys::THRUST_PER_ROTOR, Some(Tier::PhysicalLimit))
             .unwrap()
             .value;
         assert!((limit - 0.835).abs() < 0.005, "{limit}");

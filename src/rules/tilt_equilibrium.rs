@@ -19,7 +19,7 @@ use crate::claim::{BoxSize, Claim, Mount};
 use crate::physics::{body, drag};
 use std::fmt::Write as _;
 
-use crate::report::{Finding, Sig3, Verdict};
+use crate::report::{keys, Finding, Sig3, Verdict};
 use crate::tier::{PerTier, Tier};
 
 pub const ID: &str = "tilt-equilibrium";
@@ -62,25 +62,25 @@ pub fn check(claim: &Claim) -> Finding {
     let mut figures = Vec::with_capacity(8);
     figures.extend([
         fixed(
-            "hover_tilt",
+            keys::HOVER_TILT,
             "Claimed body tilt in hover",
             tilt.get::<degree>(),
             "deg",
         ),
         fixed(
-            "horizontal_accel",
+            keys::HORIZONTAL_ACCEL,
             "Sideways acceleration left by the tilted thrust",
             accel.get::<meter_per_second_squared>(),
             "m/s^2",
         ),
         fixed(
-            "horizontal_force",
+            keys::HORIZONTAL_FORCE,
             "Sideways force to be balanced",
             sideways.get::<newton>(),
             "N",
         ),
         fixed(
-            "thrust_needed",
+            keys::THRUST_NEEDED,
             "Thrust needed to hold the weight at this tilt",
             thrust_needed.get::<newton>(),
             "N",
@@ -88,7 +88,7 @@ pub fn check(claim: &Claim) -> Finding {
     ]);
     if r.mount == Mount::Tilting {
         figures.push(fixed(
-            "uncompensated_tilt",
+            keys::UNCOMPENSATED_TILT,
             "Tilt of the thrust left after the rotors tilt back",
             residual.get::<degree>(),
             "deg",
@@ -119,7 +119,7 @@ pub fn check(claim: &Claim) -> Finding {
     });
     if let Some(v) = headwind {
         figures.extend(per_tier(
-            "headwind_needed",
+            keys::HEADWIND_NEEDED,
             "Steady headwind whose drag balances the sideways force",
             "m/s",
             |t| v[t].get::<meter_per_second>(),
@@ -237,7 +237,7 @@ mod tests {
         // Statics: g tan(30 deg) = 5.66 m/s^2 sideways with nothing to balance it.
         let f = check(&sheet("[claim]\nhover_tilt = \"30 deg\""));
         assert_eq!(f.verdict, Verdict::Impossible);
-        let a = f.figure("horizontal_accel", None).unwrap().value;
+        let a = f.figure(keys::HORIZONTAL_ACCEL, None).unwrap().value;
         assert!((a - 5.66).abs() < 0.01);
     }
 
@@ -257,7 +257,7 @@ mod tests {
             "[claim]\nhover_tilt = \"10 deg\"\n[conditions]\nwind = \"20 m/s\"",
         ));
         let v = f
-            .figure("headwind_needed", Some(Tier::Typical))
+            .figure(keys::HEADWIND_NEEDED, Some(Tier::Typical))
             .unwrap()
             .value;
         assert!((v - 14.27).abs() < 0.02, "{v}");
@@ -288,7 +288,7 @@ mod tests {
         let f = check(&sheet(
             "[claim]\nhover_tilt = \"60 deg\"\n[conditions]\nwind = \"60 m/s\"",
         ));
-        let t = f.figure("thrust_needed", None).unwrap().value;
+        let t = f.figure(keys::THRUST_NEEDED, None).unwrap().value;
         assert!((t - 2.0 * 0.3 * 9.806_65).abs() < 1e-6);
     }
 }
