@@ -6,6 +6,6 @@ pub mod claim;
 pub mod physics;
 pub mod report;
 pub mod rules;
-pub mod scan;
 pub mod sources;
+pub mod tier;
 pub mod web;

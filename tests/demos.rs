@@ -85,14 +85,3 @@ fn every_demo_file_on_disk_is_built_in() {
         assert_eq!(std::fs::read_to_string(&path).unwrap(), d.text);
     }
 }
-
-#[test]
-fn every_demo_report_is_written_as_serde_json_writes_it() {
-    // serde_json, a general-purpose reference library, from the derived
-    // Serialize: the API's compact form, written by hand.
-    for d in demo::DEMOS {
-        let r = rules::run_all(&claim::parse_any(d.text).unwrap());
-        let compact = String::from_utf8(liftaudit::report::json::compact(&r)).unwrap();
-        assert_eq!(compact, serde_json::to_string(&r).unwrap(), "{}", d.name);
-    }
-}

@@ -3,7 +3,7 @@
 //! momentum theory, battery energy), not through the crate's physics code.
 
 use liftaudit::claim::{self, Format};
-use liftaudit::report::{Tier, Verdict};
+use liftaudit::report::{keys, Tier, Verdict};
 use liftaudit::rules;
 
 /// A small deterministic generator (Knuth's MMIX LCG), so the sheets are the same every run.
@@ -104,7 +104,7 @@ fn held_out_sheets_give_the_physical_limit_figures_of_an_independent_computation
         let thrust = s.n * s.thrust_gf * 9.806_65e-3 * rho / 1.225_0;
         let tm = report.finding("thrust-margin").unwrap();
         let hf = tm
-            .figure("hover_fraction", Some(Tier::PhysicalLimit))
+            .figure(keys::HOVER_FRACTION, Some(Tier::PhysicalLimit))
             .unwrap()
             .value;
         assert!(
@@ -131,7 +131,7 @@ fn held_out_sheets_give_the_physical_limit_figures_of_an_independent_computation
         let minutes = e_j / p / 60.0;
         let eb = report.finding("energy-budget").unwrap();
         let got = eb
-            .figure("endurance", Some(Tier::PhysicalLimit))
+            .figure(keys::ENDURANCE, Some(Tier::PhysicalLimit))
             .unwrap()
             .value;
         assert!(
@@ -139,7 +139,7 @@ fn held_out_sheets_give_the_physical_limit_figures_of_an_independent_computation
             "{i}: {got} vs {minutes}"
         );
         let power = eb
-            .figure("hover_power", Some(Tier::PhysicalLimit))
+            .figure(keys::HOVER_POWER, Some(Tier::PhysicalLimit))
             .unwrap()
             .value;
         assert!((power - p).abs() < 2e-4 * p, "{i}");

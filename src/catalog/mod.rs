@@ -4,6 +4,8 @@
 
 pub mod tiers;
 
+use std::fmt;
+
 use serde::Serialize;
 use uom::si::f64::{Force, Length, Mass, Power};
 use uom::si::{force::gram_force, length::millimeter, mass::gram, power::watt};
@@ -22,19 +24,23 @@ pub enum Basis {
 }
 
 impl Basis {
-    /// A short line for reports and the methods page.
+    /// A short line for reports and the methods page ([`Display`](fmt::Display)).
     pub fn describe(&self) -> String {
-        let (kind, note) = self.parts();
-        [kind, note].concat()
+        self.to_string()
     }
+}
 
-    /// [`describe`](Basis::describe) in its two pieces, "source: " and the
-    /// source's title, for writers that append them to a longer line.
-    pub fn parts(&self) -> (&'static str, &'static str) {
+/// "source: " and the source's title, or the kind of basis and its note:
+/// the line a report's assumptions and the methods page print.
+impl fmt::Display for Basis {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
         match *self {
-            Basis::Source(id) => ("source: ", crate::sources::get(id).map_or(id, |s| s.title)),
-            Basis::CommonPractice(note) => ("common practice: ", note),
-            Basis::FromMemory(note) => ("from memory: ", note),
+            Basis::Source(id) => {
+                let title = crate::sources::get(id).map_or(id, |s| s.title);
+                write!(f, "source: {title}")
+            }
+            Basis::CommonPractice(note) => write!(f, "common practice: {note}"),
+            Basis::FromMemory(note) => write!(f, "from memory: {note}"),
         }
     }
 }

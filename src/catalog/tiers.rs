@@ -1,9 +1,7 @@
-//! The assumption tiers and their one table of values.
+//! The one table of values for the assumption tiers ([`crate::tier`]).
 //!
-//! Every rule evaluates a claim three times, most generous first: with the
-//! laws of physics only, with the best that real hardware of the class
-//! achieves, and with what an ordinary build achieves. Each row below states
-//! its three values and its basis; the methods page prints this table as is.
+//! Each row below states its value at each tier and its basis; the methods
+//! page prints this table as is.
 
 use serde::Serialize;
 use uom::si::f64::Length;
@@ -11,39 +9,7 @@ use uom::si::length::millimeter;
 use utoipa::ToSchema;
 
 use super::{Basis, Drive};
-
-#[derive(Debug, Clone, Copy, PartialEq, Eq, PartialOrd, Ord, Hash, Serialize, ToSchema)]
-#[serde(rename_all = "kebab-case")]
-pub enum Tier {
-    PhysicalLimit,
-    BestPractice,
-    Typical,
-}
-
-impl Tier {
-    /// Most generous first: the order in which a claim is tried.
-    pub const ALL: [Tier; 3] = [Tier::PhysicalLimit, Tier::BestPractice, Tier::Typical];
-
-    pub fn id(self) -> &'static str {
-        match self {
-            Tier::PhysicalLimit => "physical-limit",
-            Tier::BestPractice => "best-practice",
-            Tier::Typical => "typical",
-        }
-    }
-
-    pub fn label(self) -> &'static str {
-        match self {
-            Tier::PhysicalLimit => "physical limit",
-            Tier::BestPractice => "best practice",
-            Tier::Typical => "typical build",
-        }
-    }
-
-    fn index(self) -> usize {
-        self as usize
-    }
-}
+pub use crate::tier::{PerTier, Tier};
 
 /// One row of the tier table.
 #[derive(Debug, Clone, Serialize, ToSchema)]
@@ -52,14 +18,14 @@ pub struct Row {
     pub label: &'static str,
     pub unit: &'static str,
     /// Values at physical limit, best practice, typical.
-    #[schema(min_items = 3, max_items = 3)]
-    pub values: [f64; 3],
+    #[schema(value_type = Vec<f64>, min_items = 3, max_items = 3)]
+    pub values: PerTier<f64>,
     pub basis: Basis,
 }
 
 impl Row {
     pub fn at(&self, tier: Tier) -> f64 {
-        self.values[tier.index()]
+        self.values[tier]
     }
 }
 
@@ -67,7 +33,7 @@ const fn row(
     key: &'static str,
     label: &'static str,
     unit: &'static str,
-    values: [f64; 3],
+    values: PerTier<f64>,
     basis: Basis,
 ) -> Row {
     Row {
@@ -83,70 +49,70 @@ pub const FM_SMALL: Row = row(
     "figure_of_merit_small",
     "Figure of merit, rotors under 100 mm",
     "1",
-    [1.0, 0.75, 0.45],
+    PerTier::new(1.0, 0.75, 0.45),
     Basis::FromMemory("micro rotors reach 0.4-0.6; good full-scale rotors 0.7-0.8"),
 );
 pub const FM_MEDIUM: Row = row(
     "figure_of_merit_medium",
     "Figure of merit, rotors 100-250 mm",
     "1",
-    [1.0, 0.75, 0.55],
+    PerTier::new(1.0, 0.75, 0.55),
     Basis::FromMemory("small hobby propellers 0.5-0.6; good full-scale rotors 0.7-0.8"),
 );
 pub const FM_LARGE: Row = row(
     "figure_of_merit_large",
     "Figure of merit, rotors over 250 mm",
     "1",
-    [1.0, 0.80, 0.65],
+    PerTier::new(1.0, 0.80, 0.65),
     Basis::FromMemory("good full-scale rotors 0.7-0.8"),
 );
 pub const BRUSHLESS_MOTOR: Row = row(
     "brushless_motor_efficiency",
     "Brushless motor efficiency",
     "1",
-    [1.0, 0.90, 0.80],
+    PerTier::new(1.0, 0.90, 0.80),
     Basis::FromMemory("outrunners peak near 0.9; 0.75-0.85 at hover throttle"),
 );
 pub const BRUSHLESS_CONTROLLER: Row = row(
     "brushless_controller_efficiency",
     "Brushless speed controller efficiency",
     "1",
-    [1.0, 0.97, 0.95],
+    PerTier::new(1.0, 0.97, 0.95),
     Basis::FromMemory("MOSFET controllers lose 3-5 % at hover current"),
 );
 pub const BRUSHED_MOTOR: Row = row(
     "brushed_motor_efficiency",
     "Brushed coreless motor efficiency",
     "1",
-    [1.0, 0.75, 0.55],
+    PerTier::new(1.0, 0.75, 0.55),
     Basis::FromMemory("coreless motors peak near 0.75; about 0.55 at the loads micro craft run"),
 );
 pub const BRUSHED_DRIVER: Row = row(
     "brushed_driver_efficiency",
     "Brushed motor driver (MOSFET) efficiency",
     "1",
-    [1.0, 0.98, 0.95],
+    PerTier::new(1.0, 0.98, 0.95),
     Basis::FromMemory("a single low-side MOSFET loses a few percent"),
 );
 pub const DEPTH_OF_DISCHARGE: Row = row(
     "depth_of_discharge",
     "Usable fraction of the battery's capacity",
     "1",
-    [1.0, 0.90, 0.80],
+    PerTier::new(1.0, 0.90, 0.80),
     Basis::CommonPractice("land with about 20 % left to spare lithium cells"),
 );
 pub const AVIONICS_POWER: Row = row(
     "avionics_power",
     "Power drawn by electronics other than motors",
     "W",
-    [0.0, 0.5, 1.0],
+    PerTier::new(0.0, 0.5, 1.0),
     Basis::CommonPractice("a flight controller and receiver draw about 1 W"),
 );
 pub const HOVER_FRACTION_MAX: Row = row(
     "hover_fraction_max",
     "Largest share of maximum thrust spent to hover",
     "1",
-    [1.0, 1.0, 0.70],
+    PerTier::new(1.0, 1.0, 0.70),
     Basis::CommonPractice(
         "hover at no more than about 70 % of maximum thrust, leaving room to climb and steer",
     ),
@@ -155,21 +121,21 @@ pub const BODY_DRAG: Row = row(
     "body_drag_coefficient",
     "Drag coefficient of the body in a headwind",
     "1",
-    [2.0, 1.28, 1.05],
+    PerTier::new(2.0, 1.28, 1.05),
     Basis::Source("hoerner-1965"),
 );
 pub const THRUST_MISMATCH: Row = row(
     "thrust_mismatch",
     "Thrust mismatch between rotors at one command",
     "1",
-    [0.01, 0.02, 0.05],
+    PerTier::new(0.01, 0.02, 0.05),
     Basis::CommonPractice("motors and propellers of one batch differ by a few percent"),
 );
 pub const GYRO_DRIFT: Row = row(
     "gyro_drift",
     "Rate-gyro bias drift, uncorrected",
     "deg/h",
-    [0.0, 10.0, 360.0],
+    PerTier::new(0.0, 10.0, 360.0),
     Basis::FromMemory(
         "calibrated MEMS gyros 1-10 deg/h; uncorrected consumer parts about 0.1 deg/s",
     ),
@@ -178,14 +144,14 @@ pub const ACCEL_BIAS: Row = row(
     "accelerometer_bias",
     "Accelerometer bias, uncorrected",
     "m/s^2",
-    [0.0, 0.005, 0.05],
+    PerTier::new(0.0, 0.005, 0.05),
     Basis::FromMemory("consumer MEMS accelerometers 0.5-5 mg after calibration"),
 );
 pub const LEVEL_ERROR: Row = row(
     "level_error",
     "Error of the level reference an autopilot holds",
     "deg",
-    [0.0, 0.2, 1.0],
+    PerTier::new(0.0, 0.2, 1.0),
     Basis::FromMemory(
         "accelerometer levelling to a fraction of a degree, mounting error about 1 deg",
     ),
@@ -194,7 +160,7 @@ pub const REACTIVE_TORQUE: Row = row(
     "reactive_torque_ratio",
     "Propeller drag torque per thrust, as a fraction of the rotor diameter (Q / (T D))",
     "1",
-    [0.08, 0.08, 0.06],
+    PerTier::new(0.08, 0.08, 0.06),
     Basis::FromMemory(
         "static hobby propellers have C_P / C_T about 0.4-0.5, so Q / T = C_P D / (2 pi C_T) \
          is about 0.06-0.08 D; no law bounds it, so the generous tiers take the upper end",
@@ -204,7 +170,7 @@ pub const TRI_SERVO_RANGE: Row = row(
     "tri_servo_range",
     "Tilt either way of a tricopter's yaw servo, when the sheet gives none",
     "deg",
-    [30.0, 30.0, 30.0],
+    PerTier::new(30.0, 30.0, 30.0),
     Basis::CommonPractice("tricopter tail servos swing the motor about 30 deg either way"),
 );
 
@@ -278,7 +244,8 @@ mod tests {
         ];
         for r in falling {
             assert!(
-                r.values[0] >= r.values[1] && r.values[1] >= r.values[2],
+                r.values.physical_limit >= r.values.best_practice
+                    && r.values.best_practice >= r.values.typical,
                 "{}",
                 r.key
             );
@@ -292,7 +259,8 @@ mod tests {
         ];
         for r in rising {
             assert!(
-                r.values[0] <= r.values[1] && r.values[1] <= r.values[2],
+                r.values.physical_limit <= r.values.best_practice
+                    && r.values.best_practice <= r.values.typical,
                 "{}",
                 r.key
             );

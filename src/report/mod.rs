@@ -4,9 +4,8 @@
 //! other tools read the figure keys and verdict ids, so they change only with
 //! a new schema id.
 
-pub mod json;
+pub mod keys;
 pub mod numbers;
-pub mod say;
 mod text;
 
 use std::borrow::Cow;
@@ -14,8 +13,8 @@ use std::borrow::Cow;
 use serde::Serialize;
 use utoipa::ToSchema;
 
-pub use crate::catalog::tiers::Tier;
-pub use numbers::{push_fixed, sig3, Fixed, Sig3, Tenths};
+pub use crate::tier::{PerTier, Tier};
+pub use numbers::Sig3;
 pub use text::render_text;
 
 pub const SCHEMA: &str = "liftaudit.report/1";
@@ -203,9 +202,9 @@ impl Report {
         self.findings.iter().find(|f| f.rule == rule)
     }
 
-    /// The report as indented JSON, for the files people open: serde_json's
-    /// own writer from the derived `Serialize` (the API's compact form is
-    /// [`json::compact`]).
+    /// The report as indented JSON, for the files people open, written by
+    /// serde_json from the derived `Serialize` (the API answers with the
+    /// compact form of the same).
     pub fn to_json(&self) -> String {
         // Every figure is finite and every field serializes, so this cannot fail.
         serde_json::to_string_pretty(self).unwrap_or_default()
@@ -233,14 +232,14 @@ mod tests {
             headline: "h".into(),
             figures: vec![
                 Figure {
-                    key: "hover_fraction",
+                    key: keys::HOVER_FRACTION,
                     label: "l".into(),
                     tier: Some(Tier::Typical),
                     value: 5.1,
                     unit: "1",
                 },
                 Figure {
-                    key: "weight",
+                    key: keys::WEIGHT,
                     label: "w".into(),
                     tier: None,
                     value: 3.0,

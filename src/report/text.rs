@@ -3,7 +3,7 @@
 
 use std::fmt::Write;
 
-use super::{Figure, Report, Tier, Verdict};
+use super::{Figure, PerTier, Report, Tier, Verdict};
 
 fn paint(text: &str, verdict: Verdict, color: bool) -> String {
     if !color {
@@ -35,13 +35,13 @@ fn number(v: f64) -> String {
     } else {
         (3 - a.log10().floor() as i32).max(0) as usize
     };
-    super::Fixed(v, digits).to_string()
+    format!("{v:.digits$}")
 }
 
 /// One line of a finding's table: a figure key with its value per tier, or its one value.
 struct Row<'a> {
     figure: &'a Figure,
-    by_tier: [Option<f64>; 3],
+    by_tier: PerTier<Option<f64>>,
     fixed: Option<f64>,
 }
 
@@ -54,14 +54,14 @@ fn rows(figures: &[Figure]) -> Vec<Row<'_>> {
             None => {
                 out.push(Row {
                     figure: f,
-                    by_tier: [None; 3],
+                    by_tier: PerTier::default(),
                     fixed: None,
                 });
                 out.len() - 1
             }
         };
         match f.tier {
-            Some(t) => out[i].by_tier[t as usize] = Some(f.value),
+            Some(t) => out[i].by_tier[t] = Some(f.value),
             None => out[i].fixed = Some(f.value),
         }
     }
@@ -125,14 +125,11 @@ pub fn render_text(report: &Report, color: bool) -> String {
                         let _ = writeln!(s, "  {:width$}  {}{unit}", g.label, number(v));
                     }
                     None => {
-                        let cells: Vec<String> = by_tier
-                            .iter()
-                            .map(|v| v.map_or("-".to_string(), number))
-                            .collect();
+                        let cells = by_tier.map(|v| v.map_or("-".to_string(), number));
                         let _ = writeln!(
                             s,
                             "  {:width$}  {:>14} {:>14} {:>14}{unit}",
-                            g.label, cells[0], cells[1], cells[2]
+                            g.label, cells.physical_limit, cells.best_practice, cells.typical
                         );
                     }
                 }
@@ -158,6 +155,7 @@ pub fn render_text(report: &Report, color: bool) -> String {
 #[cfg(test)]
 mod tests {
     use super::*;
+    use crate::report::keys;
     use crate::report::Finding;
 
     #[test]
@@ -178,10 +176,10 @@ mod tests {
             figures: Tier::ALL
                 .iter()
                 .map(|&t| Figure {
-                    key: "hover_fraction",
+                    key: keys::HOVER_FRACTION,
                     label: "Share".into(),
                     tier: Some(t),
-                    value: 0.5 + t as usize as f64 * 0.1,
+                    value: PerTier::new(0.5, 0.6, 0.7)[t],
                     unit: "1",
                 })
                 .collect(),

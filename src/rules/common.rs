@@ -5,10 +5,10 @@ use std::borrow::Cow;
 
 use uom::si::f64::{Force, Length};
 
-use crate::catalog::tiers::Tier;
 use crate::claim::Claim;
 use crate::physics::atmosphere::{self, Air};
 use crate::report::{Figure, Verdict};
+use crate::tier::Tier;
 
 /// The air the claim flies in: ISA at the stated altitude and temperature.
 pub fn air(claim: &Claim) -> Air {

@@ -13,6 +13,7 @@
 
 use std::borrow::Cow;
 use std::cell::OnceCell;
+use std::fmt;
 
 use serde::Serialize;
 use uom::si::f64::{Force, Length};
@@ -20,12 +21,11 @@ use uom::si::{length::millimeter, torque::newton_meter};
 
 use super::common::{self, fixed, per_tier, tiered};
 use super::thrust_margin;
-use crate::catalog::tiers::{Tier, REACTIVE_TORQUE, THRUST_MISMATCH};
+use crate::catalog::tiers::{REACTIVE_TORQUE, THRUST_MISMATCH};
 use crate::claim::{Claim, Layout, Mount, Spin};
 use crate::physics::control::{self, Authority, Axis, Hover, Placement};
-use crate::report::say::{say, say_to, AndList, PerTier, Piece};
-use crate::report::Sig3;
-use crate::report::{Figure, Finding, Verdict};
+use crate::report::{keys, Figure, Finding, Sig3, Verdict};
+use crate::tier::{PerTier, Tier};
 
 pub const ID: &str = "control-authority";
 pub const TITLE: &str = "Control authority";
@@ -35,12 +35,7 @@ pub const METHOD: &str = "Each actuator's effect on thrust, roll, pitch and yaw 
 /// sheet: the intact ACAI for up to about 40 actuators, the failure table for fewer.
 const SEARCH_BUDGET: f64 = 4e6;
 /// Figure keys of the worst ACAI with one, two, ... rotors lost.
-const LOST_KEYS: [&str; 4] = [
-    "acai_one_rotor_lost",
-    "acai_two_rotors_lost",
-    "acai_three_rotors_lost",
-    "acai_four_rotors_lost",
-];
+const LOST_KEYS: [&str; 4] = keys::ACAI_ROTORS_LOST;
 
 /// What the rule works out from a claim; shared with [`layout_view`].
 struct Analysis {
@@ -49,14 +44,14 @@ struct Analysis {
     diameter: Length,
     authority: Authority,
     /// Per-rotor maximum thrust per tier, when the sheet lets it be estimated.
-    thrust: Option<[Force; 3]>,
+    thrust: Option<PerTier<Force>>,
     /// The attainable set's face normals, worked out on first use: one set per
     /// distinct drag-torque ratio (the generous tiers share theirs), and the set of each tier.
-    faces: OnceCell<(Vec<control::Faces>, [usize; 3])>,
+    faces: OnceCell<(Vec<control::Faces>, PerTier<usize>)>,
 }
 
 /// Sets of lost rotors (0-based), with the ACAI at each tier.
-type FailureTable = Vec<(Vec<usize>, [f64; 3])>;
+type FailureTable = Vec<(Vec<usize>, PerTier<f64>)>;
 
 impl Analysis {
     fn torque_ratio(&self, t: Tier) -> Length {
@@ -66,12 +61,12 @@ impl Analysis {
     fn acai(&self, t: Tier, lost: &[usize]) -> Option<f64> {
         let hover = Hover {
             weight: self.weight,
-            rotor_thrust: self.thrust?[t as usize],
+            rotor_thrust: self.thrust?[t],
             torque_ratio: self.torque_ratio(t),
         };
         let (faces, of_tier) = self.faces.get_or_init(|| {
             let mut ratios: Vec<Length> = Vec::with_capacity(3);
-            let of_tier = Tier::ALL.map(|t| {
+            let of_tier = PerTier::from_fn(|t| {
                 let k = self.torque_ratio(t);
                 ratios.iter().position(|&r| r == k).unwrap_or_else(|| {
                     ratios.push(k);
@@ -84,7 +79,7 @@ impl Analysis {
                 .collect();
             (faces, of_tier)
         });
-        Some(faces[of_tier[t as usize]].hover_acai(&self.placements, &hover, lost))
+        Some(faces[of_tier[t]].hover_acai(&self.placements, &hover, lost))
     }
 
     /// The margin the ACAI must clear: none at the generous tiers; at the typical
@@ -122,8 +117,11 @@ impl Analysis {
         }
         sets.into_iter()
             .map(|s| {
-                let v = Tier::ALL.map(|t| self.acai(t, &s));
-                Some((s, [v[0]?, v[1]?, v[2]?]))
+                let v = PerTier::from_fn(|t| self.acai(t, &s));
+                Some((
+                    s,
+                    PerTier::new(v.physical_limit?, v.best_practice?, v.typical?),
+                ))
             })
             .collect()
     }
@@ -179,25 +177,28 @@ fn tier_phrase(t: Tier) -> &'static str {
     }
 }
 
+/// The items as a list in words: "a", "a and b", "a, b and c".
+fn and_list<T: fmt::Display>(items: impl IntoIterator<Item = T>) -> String {
+    let items: Vec<String> = items.into_iter().map(|item| item.to_string()).collect();
+    match items.split_last() {
+        Some((last, rest)) if !rest.is_empty() => format!("{} and {last}", rest.join(", ")),
+        Some((last, _)) => last.clone(),
+        None => String::new(),
+    }
+}
+
 /// Axes by their ids: "roll", "roll and yaw", "roll, pitch and yaw".
-fn axes(list: &[Axis]) -> AndList<impl Iterator<Item = &'static str> + Clone + '_> {
-    AndList(list.iter().map(|a| a.id()))
+fn axes(list: &[Axis]) -> String {
+    and_list(list.iter().map(|a| a.id()))
 }
 
 /// Rotor numbers as the report shows them, from 1: "rotor 2", "rotors 1 and 4".
 struct RotorList<'a>(&'a [usize]);
 
-impl Piece for RotorList<'_> {
-    fn size(&self) -> usize {
-        7 + 6 * self.0.len()
-    }
-    fn push_to(&self, out: &mut String) {
-        out.push_str(if self.0.len() > 1 {
-            "rotors "
-        } else {
-            "rotor "
-        });
-        AndList(self.0.iter().map(|i| i + 1)).push_to(out);
+impl fmt::Display for RotorList<'_> {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        let noun = if self.0.len() > 1 { "rotors" } else { "rotor" };
+        write!(f, "{noun} {}", and_list(self.0.iter().map(|i| i + 1)))
     }
 }
 
@@ -217,22 +218,20 @@ fn fix_for_rank(claim: &Claim, a: &Authority) -> &'static str {
 /// Why axes are missing, in words.
 struct WhyRank<'a>(&'a Authority);
 
-impl Piece for WhyRank<'_> {
-    fn size(&self) -> usize {
-        80
-    }
-    fn push_to(&self, out: &mut String) {
+impl fmt::Display for WhyRank<'_> {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
         let a = self.0;
         let unmoved = !a.unmoved.is_empty();
         if unmoved {
-            say_to!(out, "nothing on it makes a ", axes(&a.unmoved), " moment");
+            write!(f, "nothing on it makes a {} moment", axes(&a.unmoved))?;
         }
         if a.tied.len() > 1 {
             if unmoved {
-                out.push_str(", and ");
+                f.write_str(", and ")?;
             }
-            say_to!(out, axes(&a.tied), " share the same inputs");
+            write!(f, "{} share the same inputs", axes(&a.tied))?;
         }
+        Ok(())
     }
 }
 
@@ -261,25 +260,21 @@ fn assess(claim: &Claim, an: &Analysis) -> Finding {
     let n = an.placements.len();
     let a = &an.authority;
     let rank = fixed(
-        "rank",
+        keys::RANK,
         "Axes the actuators can command independently (rank of the control-effectiveness matrix, of 4)",
         a.rank as f64,
         "1",
     );
     let mut assumptions = Vec::with_capacity(4);
-    assumptions.push(say!(
-        "Rotor positions from the ",
+    assumptions.push(format!(
+        "Rotor positions from the {} layout; body axes x forward, y left, z up; rotors numbered clockwise from the nose seen from above.",
         claim.rotors.layout.map_or("stated", Layout::id),
-        " layout; body axes x forward, y left, z up; rotors numbered clockwise from the nose seen from above."
     ));
-    assumptions.push(say!(
-        "Propeller drag torque per thrust ",
-        PerTier(REACTIVE_TORQUE.values),
-        " of the rotor diameter (",
+    assumptions.push(format!(
+        "Propeller drag torque per thrust {} of the rotor diameter ({} mm); {}.",
+        REACTIVE_TORQUE.values,
         Sig3(an.diameter.get::<millimeter>()),
-        " mm); ",
         REACTIVE_TORQUE.basis,
-        "."
     ));
     assumptions.push(
         "Tilt actuators linearised at hover, each rotor carrying an equal share of the weight."
@@ -292,25 +287,21 @@ fn assess(claim: &Claim, an: &Analysis) -> Finding {
         return Finding {
             rule: ID,
             verdict: Verdict::Impossible,
-            headline: say!(
-                "Its actuators cannot command ",
+            headline: format!(
+                "Its actuators cannot command {} independently: {}. Without control of every axis it cannot hold a hover.",
                 axes(&a.lacking),
-                " independently: ",
                 WhyRank(a),
-                ". Without control of every axis it cannot hold a hover."
             ),
             figures: vec![rank],
-            would_take: say!("It would take ", fix_for_rank(claim, a), "."),
+            would_take: format!("It would take {}.", fix_for_rank(claim, a)),
             assumptions,
             sources,
         };
     }
     let Some(thrust) = an.thrust else {
         let mut f = Finding::not_assessed(ID, NEEDS_THRUST);
-        f.headline = say!(
-            "Its actuators can command all four axes, but the margin is not assessed: the sheet does not give ",
-            NEEDS_THRUST,
-            "."
+        f.headline = format!(
+            "Its actuators can command all four axes, but the margin is not assessed: the sheet does not give {NEEDS_THRUST}."
         );
         f.figures.push(rank);
         return f;
@@ -333,22 +324,19 @@ fn assess(claim: &Claim, an: &Analysis) -> Finding {
     let table = an.failures(searched);
     if claimed > searched || (claimed > 0 && table.is_none()) {
         let mut f = Finding::not_assessed(ID, "a craft small enough to search every combination of lost rotors (up to four lost, about 16 rotors)");
-        f.headline = say!(
-            "Not assessed: the claim to survive ",
-            claimed,
-            " lost rotors needs more combinations searched than this screen does."
+        f.headline = format!(
+            "Not assessed: the claim to survive {claimed} lost rotors needs more combinations searched than this screen does."
         );
         f.would_take = SEARCH_LIMIT.to_string();
         f.figures.push(rank);
         return f;
     }
     let searched = if table.is_some() { searched } else { 0 };
-    let intact = Tier::ALL.map(|t| an.acai(t, &[]).unwrap_or(f64::NAN));
+    let intact = PerTier::from_fn(|t| an.acai(t, &[]).unwrap_or(f64::NAN));
     let table = table.unwrap_or_default();
     let claimed_sets = || table.iter().filter(|(s, _)| s.len() <= claimed);
     let passes = |t: Tier| {
-        intact[t as usize] > an.margin(t, &[])
-            && claimed_sets().all(|(s, v)| v[t as usize] > an.margin(t, s))
+        intact[t] > an.margin(t, &[]) && claimed_sets().all(|(s, v)| v[t] > an.margin(t, s))
     };
     let fails_at = common::first_failure(passes);
     let verdict = Verdict::failing_at(fails_at);
@@ -357,13 +345,13 @@ fn assess(claim: &Claim, an: &Analysis) -> Finding {
     let mut figures = Vec::with_capacity(2 + 3 * (1 + LOST_KEYS.len()));
     figures.push(rank);
     figures.extend(per_tier(
-        "acai",
+        keys::ACAI,
         "Available control authority index, intact (N and N m)",
         "N, N m",
-        |t| intact[t as usize],
+        |t| intact[t],
     ));
     figures.push(tiered(
-        "mismatch_moment",
+        keys::MISMATCH_MOMENT,
         "Moment of a typical thrust mismatch, the margin the ACAI must clear",
         Tier::Typical,
         an.margin(Tier::Typical, &[]),
@@ -373,89 +361,69 @@ fn assess(claim: &Claim, an: &Analysis) -> Finding {
         table
             .iter()
             .filter(|(s, _)| s.len() == size)
-            .min_by(|a, b| a.1[t as usize].total_cmp(&b.1[t as usize]))
+            .min_by(|a, b| a.1[t].total_cmp(&b.1[t]))
     };
     for (size, key) in LOST_KEYS.iter().enumerate().map(|(i, k)| (i + 1, *k)) {
         for t in Tier::ALL {
             if let Some((s, v)) = worst(size, t) {
                 let label = match size {
-                    1 => say!("ACAI with the worst rotor lost (", RotorList(s), ")"),
-                    _ => say!(
-                        "ACAI with the worst ",
-                        size,
-                        " rotors lost (",
-                        RotorList(s),
-                        ")"
-                    ),
+                    1 => format!("ACAI with the worst rotor lost ({})", RotorList(s)),
+                    _ => format!("ACAI with the worst {size} rotors lost ({})", RotorList(s)),
                 };
-                figures.push(tiered(key, label, t, v[t as usize], "N, N m"));
+                figures.push(tiered(key, label, t, v[t], "N, N m"));
             }
         }
     }
     figures.retain(|f: &Figure| f.value.is_finite());
 
     // 3. The words.
-    let at = |t: Tier| Sig3(intact[t as usize]);
-    let lifts = |t: Tier| thrust[t as usize] * n as f64 >= an.weight;
-    let first_bad_set = |t: Tier| claimed_sets().find(|(s, v)| v[t as usize] <= an.margin(t, s));
-    let intact_fails = |t: Tier| intact[t as usize] <= an.margin(t, &[]);
+    let at = |t: Tier| Sig3(intact[t]);
+    let lifts = |t: Tier| thrust[t] * n as f64 >= an.weight;
+    let first_bad_set = |t: Tier| claimed_sets().find(|(s, v)| v[t] <= an.margin(t, s));
+    let intact_fails = |t: Tier| intact[t] <= an.margin(t, &[]);
     let (headline, would_take) = match fails_at {
         Some(t) if intact_fails(t) && !lifts(t) => (
-            say!(
-                "Its rotors cannot lift it even at full thrust (",
+            format!(
+                "Its rotors cannot lift it even at full thrust ({}), so nothing is left to steer with (see thrust-margin).",
                 tier_phrase(t),
-                "), so nothing is left to steer with (see thrust-margin)."
             ),
             "It would take more thrust per rotor or more rotors (see thrust-margin).".to_string(),
         ),
-        Some(Tier::Typical) if intact[Tier::Typical as usize] <= 0.0 => (
-            say!(
-                "With typical rotors it cannot make every moment a hover needs (ACAI ",
+        Some(Tier::Typical) if intact[Tier::Typical] <= 0.0 => (
+            format!(
+                "With typical rotors it cannot make every moment a hover needs (ACAI {}); only better-than-typical ones give it control.",
                 at(Tier::Typical),
-                "); only better-than-typical ones give it control."
             ),
             "It would take rotors with more thrust to spare (hovering well below full thrust), or longer arms.".to_string(),
         ),
         Some(Tier::Typical) if intact_fails(Tier::Typical) => (
-            say!(
-                "Its control margin in hover (ACAI ",
+            format!(
+                "Its control margin in hover (ACAI {} with typical rotors) is smaller than the {} N m of a typical {} % thrust mismatch between rotors: a worn propeller or a gust could tip it.",
                 at(Tier::Typical),
-                " with typical rotors) is smaller than the ",
                 Sig3(an.margin(Tier::Typical, &[])),
-                " N m of a typical ",
                 (100.0 * THRUST_MISMATCH.at(Tier::Typical)).round(),
-                " % thrust mismatch between rotors: a worn propeller or a gust could tip it."
             ),
             "It would take rotors with more thrust to spare (hovering well below full thrust), or longer arms.".to_string(),
         ),
         Some(t) if intact_fails(t) => (
-            say!(
-                "Even at full thrust from ",
+            format!(
+                "Even at full thrust from {} rotors it cannot make every moment a hover needs (ACAI {} {}).",
                 if t == Tier::PhysicalLimit { "perfect" } else { "the best" },
-                " rotors it cannot make every moment a hover needs (ACAI ",
                 at(t),
-                " ",
                 tier_phrase(t),
-                ")."
             ),
             "It would take rotors with more thrust to spare, longer arms, or rotors of both spin directions spread around the centre of mass.".to_string(),
         ),
         Some(t) => {
-            let (set, v) = first_bad_set(t).map_or((&[][..], 0.0), |(s, v)| (&s[..], v[t as usize]));
+            let (set, v) = first_bad_set(t).map_or((&[][..], 0.0), |(s, v)| (&s[..], v[t]));
             (
-                say!(
-                    "It is said to keep flying after losing ",
-                    claimed,
-                    if claimed > 1 { " rotors" } else { " rotor" },
-                    ", but with ",
+                format!(
+                    "It is said to keep flying after losing {claimed} {}, but with {} lost the rest {} (ACAI {} {}).",
+                    if claimed > 1 { "rotors" } else { "rotor" },
                     RotorList(set),
-                    " lost the rest ",
                     if v <= 0.0 { "cannot make every moment a hover needs" } else { "have too little control to spare" },
-                    " (ACAI ",
                     Sig3(v),
-                    " ",
                     tier_phrase(t),
-                    ")."
                 ),
                 "It would take six or more rotors with thrust to spare and a failure-tolerant spin pattern (for six, P P N N P N: Du et al. 2015), or no claim of rotor-failure tolerance.".to_string(),
             )
@@ -463,31 +431,26 @@ fn assess(claim: &Claim, an: &Analysis) -> Finding {
         None => {
             let single = worst(1, Tier::Typical);
             let after: Cow<str> = match (claimed, single) {
-                (0, Some((s, v))) if v[2] <= 0.0 => {
-                    say!(" Losing ", RotorList(s), " would leave it without control.").into()
+                (0, Some((s, v))) if v[Tier::Typical] <= 0.0 => {
+                    format!(" Losing {} would leave it without control.", RotorList(s)).into()
                 }
                 (0, Some(_)) => " It could keep flying after losing any one rotor.".into(),
-                (k, _) if k > 0 => say!(" It keeps control after losing any ", k, ".").into(),
+                (k, _) if k > 0 => format!(" It keeps control after losing any {k}.").into(),
                 _ => "".into(),
             };
             (
-                say!(
-                    "Its rotors can command thrust, roll, pitch and yaw with margin (ACAI ",
+                format!(
+                    "Its rotors can command thrust, roll, pitch and yaw with margin (ACAI {} with typical rotors, against {} N m of a typical thrust mismatch).{after}",
                     at(Tier::Typical),
-                    " with typical rotors, against ",
                     Sig3(an.margin(Tier::Typical, &[])),
-                    " N m of a typical thrust mismatch).",
-                    after
                 ),
                 "Nothing: its actuators hold a hover with control to spare.".to_string(),
             )
         }
     };
-    assumptions.push(say!(
-        "Rotor thrust between zero and the thrust-margin estimate at each tier; a lost rotor gives none. Failure sets searched: up to ",
-        searched,
-        if searched == 1 { " rotor" } else { " rotors" },
-        " lost at once."
+    assumptions.push(format!(
+        "Rotor thrust between zero and the thrust-margin estimate at each tier; a lost rotor gives none. Failure sets searched: up to {searched} {} lost at once.",
+        if searched == 1 { "rotor" } else { "rotors" },
     ));
     Finding {
         rule: ID,
@@ -570,8 +533,14 @@ pub fn worst_single_loss(claim: &Claim) -> Option<(usize, [f64; 3])> {
     an.failures(1)?
         .into_iter()
         .filter(|(_, acai)| acai.iter().all(|a| a.is_finite()))
-        .min_by(|a, b| a.1[2].total_cmp(&b.1[2]))
-        .map(|(lost, acai)| (lost[0] + 1, acai))
+        .min_by(|a, b| a.1[Tier::Typical].total_cmp(&b.1[Tier::Typical]))
+        // In tier order, as the drawings of the web layer read it.
+        .map(|(lost, acai)| {
+            (
+                lost[0] + 1,
+                [acai.physical_limit, acai.best_practice, acai.typical],
+            )
+        })
 }
 
 #[cfg(test)]
@@ -588,7 +557,7 @@ mod tests {
     }
 
     fn acai(f: &Finding, t: Tier) -> f64 {
-        f.figure("acai", Some(t)).map_or(f64::NAN, |f| f.value)
+        f.figure(keys::ACAI, Some(t)).map_or(f64::NAN, |f| f.value)
     }
 
     #[test]
@@ -598,11 +567,11 @@ mod tests {
             "",
         ));
         assert_eq!(f.verdict, Verdict::Consistent, "{}", f.headline);
-        assert_eq!(f.figure("rank", None).unwrap().value, 4.0);
+        assert_eq!(f.figure(keys::RANK, None).unwrap().value, 4.0);
         assert!(Tier::ALL.into_iter().all(|t| acai(&f, t) > 0.0));
         // du-2015: a quadrotor that loses any rotor has ACAI < 0.
         let lost = f
-            .figure("acai_one_rotor_lost", Some(Tier::Typical))
+            .figure(keys::ACAI_ONE_ROTOR_LOST, Some(Tier::Typical))
             .unwrap();
         assert!(lost.value < 0.0);
         assert!(f.headline.contains("Losing rotor"), "{}", f.headline);
@@ -616,7 +585,7 @@ mod tests {
             "",
         ));
         assert_eq!(f.verdict, Verdict::Impossible);
-        assert_eq!(f.figure("rank", None).unwrap().value, 2.0);
+        assert_eq!(f.figure(keys::RANK, None).unwrap().value, 2.0);
         assert!(f.headline.contains("pitch and yaw"), "{}", f.headline);
         assert!(f.headline.contains("roll and yaw share"), "{}", f.headline);
         assert!(f.would_take.contains("tilt"), "{}", f.would_take);
@@ -628,7 +597,7 @@ mod tests {
         assert_eq!(f.verdict, Verdict::Impossible);
         let f = check(&sheet("layout = \"quad-x\"\narm = \"225 mm\"", ""));
         assert_eq!(f.verdict, Verdict::NotAssessed);
-        assert_eq!(f.figure("rank", None).unwrap().value, 4.0);
+        assert_eq!(f.figure(keys::RANK, None).unwrap().value, 4.0);
         assert!(f.headline.contains("rotors.max_thrust"), "{}", f.headline);
     }
 
@@ -638,14 +607,14 @@ mod tests {
         let bicopter = "layout = \"side-by-side\"\narm = \"200 mm\"\nmax_thrust = \"900 g\"\nmount = \"tilting\"\ntilt_range = \"30 deg\"";
         let flat = check(&sheet(bicopter, ""));
         assert_eq!(flat.verdict, Verdict::Impossible);
-        assert_eq!(flat.figure("rank", None).unwrap().value, 3.0);
+        assert_eq!(flat.figure(keys::RANK, None).unwrap().value, 3.0);
         assert!(
             flat.would_take.contains("rotors.height"),
             "{}",
             flat.would_take
         );
         let raised = check(&sheet(&format!("{bicopter}\nheight = \"60 mm\""), ""));
-        assert_eq!(raised.figure("rank", None).unwrap().value, 4.0);
+        assert_eq!(raised.figure(keys::RANK, None).unwrap().value, 4.0);
         assert!(acai(&raised, Tier::Typical) > 0.0);
         assert_eq!(raised.verdict, Verdict::Consistent, "{}", raised.headline);
     }
@@ -676,7 +645,7 @@ mod tests {
         );
         let f = check(&sheet(&custom, ""));
         assert_eq!(f.verdict, Verdict::Impossible);
-        assert_eq!(f.figure("rank", None).unwrap().value, 3.0);
+        assert_eq!(f.figure(keys::RANK, None).unwrap().value, 3.0);
         assert!(f.headline.contains("yaw independently"), "{}", f.headline);
         assert!(f.would_take.contains("yaw servo"), "{}", f.would_take);
     }
@@ -695,7 +664,7 @@ mod tests {
             at(400, 100, "ccw")
         );
         let f = check(&sheet(&custom, ""));
-        assert_eq!(f.figure("rank", None).unwrap().value, 4.0);
+        assert_eq!(f.figure(keys::RANK, None).unwrap().value, 4.0);
         assert_eq!(f.verdict, Verdict::Impossible, "{}", f.headline);
         assert!(acai(&f, Tier::PhysicalLimit) < 0.0);
     }
@@ -727,7 +696,7 @@ mod tests {
         assert_eq!(f.verdict, Verdict::Doubtful, "{}", f.headline);
         assert!(acai(&f, Tier::Typical) > 0.0);
         let margin = f
-            .figure("mismatch_moment", Some(Tier::Typical))
+            .figure(keys::MISMATCH_MOMENT, Some(Tier::Typical))
             .unwrap()
             .value;
         assert!(acai(&f, Tier::Typical) < margin);
@@ -746,11 +715,11 @@ mod tests {
         let f = check(&sheet(hex, ""));
         assert_eq!(f.verdict, Verdict::Consistent, "{}", f.headline);
         let lost = f
-            .figure("acai_one_rotor_lost", Some(Tier::PhysicalLimit))
+            .figure(keys::ACAI_ONE_ROTOR_LOST, Some(Tier::PhysicalLimit))
             .unwrap();
         assert!(lost.value.abs() < 1e-9);
         assert!(f
-            .figure("acai_two_rotors_lost", Some(Tier::Typical))
+            .figure(keys::ACAI_TWO_ROTORS_LOST, Some(Tier::Typical))
             .is_some());
     }
 
@@ -832,6 +801,6 @@ mod tests {
             "",
         ));
         assert_eq!(f.verdict, Verdict::NotAssessed, "{}", f.headline);
-        assert_eq!(f.figure("rank", None).unwrap().value, 4.0);
+        assert_eq!(f.figure(keys::RANK, None).unwrap().value, 4.0);
     }
 }

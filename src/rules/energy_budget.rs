@@ -18,14 +18,13 @@ use uom::si::{
 
 use super::common::{self, fixed, per_tier};
 use super::thrust_margin::{self, Lift};
-use crate::catalog::tiers::{self, Tier, AVIONICS_POWER, DEPTH_OF_DISCHARGE};
+use crate::catalog::tiers::{self, AVIONICS_POWER, DEPTH_OF_DISCHARGE};
 use crate::catalog::{self, Chemistry, Drive};
 use crate::claim::{Claim, Layout};
 use crate::physics::atmosphere::Air;
 use crate::physics::{battery, rotor};
-use crate::report::say::{say, PerTier};
-use crate::report::Finding;
-use crate::report::Sig3;
+use crate::report::{keys, Finding, Sig3};
+use crate::tier::{PerTier, Tier};
 
 pub const ID: &str = "energy-budget";
 pub const TITLE: &str = "Energy for the stated flight time";
@@ -98,12 +97,12 @@ pub fn check(claim: &Claim) -> Finding {
     let pack_v = battery::pack_voltage(bat.cells, cell_v);
     let m = claim.craft.mass;
 
-    let power = Tier::ALL.map(|t| frame.hover_power(m, t));
-    let energy = Tier::ALL
-        .map(|t| battery::usable_energy(bat.cells, cell_v, capacity, DEPTH_OF_DISCHARGE.at(t)));
-    let endurance = Tier::ALL.map(|t| battery::run_time(energy[t as usize], power[t as usize]));
-    let c_rate =
-        Tier::ALL.map(|t| battery::c_rate(battery::current(power[t as usize], pack_v), capacity));
+    let power = PerTier::from_fn(|t| frame.hover_power(m, t));
+    let energy = PerTier::from_fn(|t| {
+        battery::usable_energy(bat.cells, cell_v, capacity, DEPTH_OF_DISCHARGE.at(t))
+    });
+    let endurance = PerTier::from_fn(|t| battery::run_time(energy[t], power[t]));
+    let c_rate = power.map(|p| battery::c_rate(battery::current(p, pack_v), capacity));
     let rating = bat.max_discharge.unwrap_or(chem.max_c.0);
     let stored: Energy = pack_v * capacity;
     let pack_specific = bat
@@ -119,38 +118,37 @@ pub fn check(claim: &Claim) -> Finding {
         claim
             .claim
             .flight_time
-            .is_none_or(|ft| endurance[t as usize] >= ft * (1.0 - 1e-9))
+            .is_none_or(|ft| endurance[t] >= ft * (1.0 - 1e-9))
     };
     let specific_ok =
         |t: Tier| pack_specific.is_none_or(|e| e <= specific_energy(chem, t) * (1.0 + 1e-9));
-    let current_ok =
-        |t: Tier| t == Tier::PhysicalLimit || c_rate[t as usize] <= rating * (1.0 + 1e-9);
+    let current_ok = |t: Tier| t == Tier::PhysicalLimit || c_rate[t] <= rating * (1.0 + 1e-9);
     let verdict = common::verdict_of(|t| time_ok(t) && specific_ok(t) && current_ok(t));
 
     let minutes = |t: Time| t.get::<minute>();
     // Five kinds of figure per tier and four fixed ones at most.
     let mut figures = Vec::with_capacity(19);
     figures.extend(per_tier(
-        "hover_power",
+        keys::HOVER_POWER,
         "Electrical power to hover",
         "W",
-        |t| power[t as usize].get::<watt>(),
+        |t| power[t].get::<watt>(),
     ));
     figures.extend(per_tier(
-        "usable_energy",
+        keys::USABLE_ENERGY,
         "Usable battery energy",
         "Wh",
-        |t| energy[t as usize].get::<watt_hour>(),
+        |t| energy[t].get::<watt_hour>(),
     ));
     figures.extend(per_tier(
-        "endurance",
+        keys::ENDURANCE,
         "Hover time on this battery",
         "min",
-        |t| minutes(endurance[t as usize]),
+        |t| minutes(endurance[t]),
     ));
     if let Some(ft) = claim.claim.flight_time {
         figures.push(fixed(
-            "claimed_flight_time",
+            keys::CLAIMED_FLIGHT_TIME,
             "Claimed flight time",
             minutes(ft),
             "min",
@@ -158,20 +156,20 @@ pub fn check(claim: &Claim) -> Finding {
     }
     if let Some(e) = pack_specific {
         figures.push(fixed(
-            "battery_specific_energy",
+            keys::BATTERY_SPECIFIC_ENERGY,
             "Energy per kilogram of the stated battery",
             e,
             "Wh/kg",
         ));
     }
     figures.extend(per_tier(
-        "discharge_rate",
+        keys::DISCHARGE_RATE,
         "Battery discharge rate in hover",
         "C",
-        |t| c_rate[t as usize],
+        |t| c_rate[t],
     ));
     figures.push(fixed(
-        "discharge_rating",
+        keys::DISCHARGE_RATING,
         "Battery's continuous discharge rating",
         rating,
         "C",
@@ -182,18 +180,20 @@ pub fn check(claim: &Claim) -> Finding {
         let best_mass = airframe * 2.0;
         (
             best_mass,
-            Tier::ALL.map(|t| frame.endurance_on(airframe, best_mass, specific_energy(chem, t), t)),
+            PerTier::from_fn(|t| {
+                frame.endurance_on(airframe, best_mass, specific_energy(chem, t), t)
+            }),
         )
     });
     if let Some((best_mass, times)) = ceiling {
         figures.extend(per_tier(
-            "endurance_ceiling",
+            keys::ENDURANCE_CEILING,
             "Longest hover any battery of this chemistry gives this airframe",
             "min",
-            |t| minutes(times[t as usize]),
+            |t| minutes(times[t]),
         ));
         figures.push(fixed(
-            "best_battery_mass",
+            keys::BEST_BATTERY_MASS,
             "Battery mass that gives the longest hover (twice the airframe)",
             best_mass.get::<gram>(),
             "g",
@@ -202,52 +202,40 @@ pub fn check(claim: &Claim) -> Finding {
 
     let failed_at = common::first_failure(|t| time_ok(t) && specific_ok(t) && current_ok(t));
     let headline = match failed_at {
-        Some(t) if !specific_ok(t) => say!(
-            "The battery is said to hold ",
+        Some(t) if !specific_ok(t) => format!(
+            "The battery is said to hold {} Wh/kg; {} cells reach at most about {} Wh/kg {}.",
             Sig3(pack_specific.unwrap_or(0.0)),
-            " Wh/kg; ",
             chem.label,
-            " cells reach at most about ",
             Sig3(specific_energy(chem, t)),
-            " Wh/kg ",
             match t {
                 Tier::PhysicalLimit => "even in theory",
                 Tier::BestPractice => "at the very best",
                 Tier::Typical => "in ordinary packs",
             },
-            "."
         ),
-        Some(t) if !time_ok(t) => say!(
+        Some(t) if !time_ok(t) => format!(
+            "{} this battery lasts about {} min in hover; the claim is {} min.",
             match t {
                 Tier::PhysicalLimit => "Even with perfect rotors and motors,",
                 Tier::BestPractice => "With the best hardware of its class,",
                 Tier::Typical => "With typical parts,",
             },
-            " this battery lasts about ",
-            Sig3(minutes(endurance[t as usize])),
-            " min in hover; the claim is ",
+            Sig3(minutes(endurance[t])),
             Sig3(claim.claim.flight_time.map_or(0.0, minutes)),
-            " min."
         ),
-        Some(t) => say!(
-            "Hovering draws ",
-            Sig3(c_rate[t as usize]),
-            " C from the battery, above its ",
+        Some(t) => format!(
+            "Hovering draws {} C from the battery, above its {} C rating ({}).",
+            Sig3(c_rate[t]),
             Sig3(rating),
-            " C rating (",
             t.label(),
-            ")."
         ),
-        None => say!(
-            "The battery gives about ",
-            Sig3(minutes(endurance[Tier::Typical as usize])),
-            " min of hover with typical parts",
-            claim.claim.flight_time.map(|ft| (
-                ", enough for the claimed ",
-                Sig3(minutes(ft)),
-                " min"
+        None => format!(
+            "The battery gives about {} min of hover with typical parts{}.",
+            Sig3(minutes(endurance[Tier::Typical])),
+            claim.claim.flight_time.map_or(String::new(), |ft| format!(
+                ", enough for the claimed {} min",
+                Sig3(minutes(ft))
             )),
-            "."
         ),
     };
 
@@ -255,30 +243,18 @@ pub fn check(claim: &Claim) -> Finding {
         claim, &frame, chem, airframe, pack_mass, pack_v, &time_ok, ceiling,
     );
     let mut assumptions = Vec::with_capacity(9);
-    assumptions.push(say!(
-        bat.cells,
-        " cell(s) of ",
-        chem.label,
-        " at ",
-        chem.nominal_v,
-        " V nominal; ",
-        chem.basis,
-        "."
+    assumptions.push(format!(
+        "{} cell(s) of {} at {} V nominal; {}.",
+        bat.cells, chem.label, chem.nominal_v, chem.basis,
     ));
-    assumptions.push(say!(
-        "Figure of merit ",
-        PerTier(Tier::ALL.map(|t| tiers::figure_of_merit(t, diameter))),
-        " for a ",
+    assumptions.push(format!(
+        "Figure of merit {} for a {} mm rotor; drive efficiency {} ({}); usable capacity {}; avionics {} W (physical limit / best practice / typical).",
+        PerTier::from_fn(|t| tiers::figure_of_merit(t, diameter)),
         Sig3(diameter.get::<uom::si::length::millimeter>()),
-        " mm rotor; drive efficiency ",
-        PerTier(Tier::ALL.map(|t| Sig3(tiers::drive_efficiency(t, frame.drive)))),
-        " (",
+        PerTier::from_fn(|t| Sig3(tiers::drive_efficiency(t, frame.drive))),
         frame.drive.id(),
-        "); usable capacity ",
-        PerTier(DEPTH_OF_DISCHARGE.values),
-        "; avionics ",
-        PerTier(AVIONICS_POWER.values),
-        " W (physical limit / best practice / typical)."
+        DEPTH_OF_DISCHARGE.values,
+        AVIONICS_POWER.values,
     ));
     assumptions.push(
         "Hover only, in still air: climbing, manoeuvring and wind all cost more.".to_string(),
@@ -293,17 +269,14 @@ pub fn check(claim: &Claim) -> Finding {
         assumptions.push("Drive taken as brushless (rotors.drive not given).".to_string());
     }
     if bat.mass.is_none() {
-        assumptions.push(say!(
-            "Battery mass not given: taken as ",
+        assumptions.push(format!(
+            "Battery mass not given: taken as {} g from the chemistry's ordinary specific energy.",
             Sig3(pack_mass.get::<gram>()),
-            " g from the chemistry's ordinary specific energy."
         ));
     }
     if bat.max_discharge.is_none() {
-        assumptions.push(say!(
-            "Discharge rating not given: ",
-            rating,
-            " C, ordinary for the chemistry."
+        assumptions.push(format!(
+            "Discharge rating not given: {rating} C, ordinary for the chemistry."
         ));
     }
     if claim.claim.flight_time.is_none() {
@@ -338,7 +311,7 @@ fn would_take(
     pack_mass: Mass,
     pack_v: ElectricPotential,
     time_ok: &dyn Fn(Tier) -> bool,
-    ceiling: Option<(Mass, [Time; 3])>,
+    ceiling: Option<(Mass, PerTier<Time>)>,
 ) -> String {
     let Some(ft) = claim.claim.flight_time else {
         return "Nothing to meet: no flight time is claimed.".to_string();
@@ -351,15 +324,12 @@ fn would_take(
             .to_string();
     };
     let e = specific_energy(chem, Tier::Typical);
-    if times[Tier::Typical as usize] < ft {
-        return say!(
-            "No ",
+    if times[Tier::Typical] < ft {
+        return format!(
+            "No {} battery makes it with typical parts: the longest hover for this airframe is about {} min, with a {} g battery. Lighter parts or larger rotors are needed.",
             chem.id,
-            " battery makes it with typical parts: the longest hover for this airframe is about ",
-            Sig3(times[Tier::Typical as usize].get::<minute>()),
-            " min, with a ",
+            Sig3(times[Tier::Typical].get::<minute>()),
             Sig3(best_mass.get::<gram>()),
-            " g battery. Lighter parts or larger rotors are needed."
         );
     }
     // Endurance rises with battery mass up to twice the airframe: bisect on [current, 2 m0].
@@ -377,24 +347,20 @@ fn would_take(
     let take_off = airframe + hi;
     // The heavier craft must still be lifted: say so when the rotors would fall short.
     let short_of_thrust = thrust_margin::estimate(claim, &frame.air)
-        .map(|est| est.available[Tier::Typical as usize] * (f64::from(claim.rotors.count) * 0.7))
+        .map(|est| est.available[Tier::Typical] * (f64::from(claim.rotors.count) * 0.7))
         .filter(|hover_limit| take_off * frame.air.gravity > *hover_limit);
-    say!(
-        "A battery of about ",
+    let short_of_thrust = short_of_thrust.map_or(String::new(), |hover_limit| {
+        format!(
+            "; the rotors then need more thrust too: they hover at most {} at 70 % of typical thrust",
+            Lift(hover_limit)
+        )
+    });
+    format!(
+        "A battery of about {} mAh at this voltage ({} g of ordinary {} cells, {} g take-off mass){short_of_thrust}.",
         Sig3(capacity.get::<milliampere_hour>()),
-        " mAh at this voltage (",
         Sig3(hi.get::<gram>()),
-        " g of ordinary ",
         chem.id,
-        " cells, ",
         Sig3(take_off.get::<gram>()),
-        " g take-off mass)",
-        short_of_thrust.map(|hover_limit| (
-            "; the rotors then need more thrust too: they hover at most ",
-            Lift(hover_limit),
-            " at 70 % of typical thrust"
-        )),
-        "."
     )
 }
 
@@ -419,19 +385,22 @@ mod tests {
         ));
         let f = check(&c);
         let p = f
-            .figure("hover_power", Some(Tier::PhysicalLimit))
+            .figure(keys::HOVER_POWER, Some(Tier::PhysicalLimit))
             .unwrap()
             .value;
         assert!((p - 43.58).abs() < 0.05, "{p}");
         // Usable 4 x 3.7 x 5 Ah = 74 Wh -> 101.9 min at the physical limit.
         let t = f
-            .figure("endurance", Some(Tier::PhysicalLimit))
+            .figure(keys::ENDURANCE, Some(Tier::PhysicalLimit))
             .unwrap()
             .value;
         assert!((t - 74.0 / 43.58 * 60.0).abs() < 0.2, "{t}");
         // The same craft at typical values: FM 0.65 (254 mm), eta 0.76, 1 W avionics:
         // 43.58 / 0.494 + 1 = 89.2 W; 74 x 0.8 = 59.2 Wh -> 39.8 min.
-        let t = f.figure("endurance", Some(Tier::Typical)).unwrap().value;
+        let t = f
+            .figure(keys::ENDURANCE, Some(Tier::Typical))
+            .unwrap()
+            .value;
         assert!((t - 39.8).abs() < 0.2, "{t}");
     }
 
@@ -459,7 +428,7 @@ mod tests {
         ));
         let f = check(&c);
         assert_eq!(f.verdict, Verdict::Impossible);
-        let e = f.figure("battery_specific_energy", None).unwrap().value;
+        let e = f.figure(keys::BATTERY_SPECIFIC_ENERGY, None).unwrap().value;
         assert!((e - 493.3).abs() < 0.1);
     }
 
@@ -490,7 +459,7 @@ mod tests {
         ));
         let f = check(&c);
         assert!(
-            f.figure("discharge_rate", Some(Tier::Typical))
+            f.figure(keys::DISCHARGE_RATE, Some(Tier::Typical))
                 .unwrap()
                 .value
                 > 20.0

@@ -16,12 +16,11 @@ use uom::si::{
 };
 
 use super::common::{self, fixed, per_tier};
-use crate::catalog::tiers::{Tier, ACCEL_BIAS, GYRO_DRIFT, LEVEL_ERROR, THRUST_MISMATCH};
+use crate::catalog::tiers::{ACCEL_BIAS, GYRO_DRIFT, LEVEL_ERROR, THRUST_MISMATCH};
 use crate::claim::{Claim, PositionSensor};
 use crate::physics::{body, control};
-use crate::report::say::{say, Joined, PerTier};
-use crate::report::Sig3;
-use crate::report::{Figure, Finding, Verdict};
+use crate::report::{keys, Figure, Finding, Sig3, Verdict};
+use crate::tier::{PerTier, Tier};
 
 pub const ID: &str = "sensing";
 pub const TITLE: &str = "Sensing and stabilisation";
@@ -114,8 +113,8 @@ fn time_to_drift(accel: Acceleration) -> Time {
 
 /// Judges a drift time per tier against the hold time: failing best practice is
 /// implausible, typical doubtful; no law is broken, so never impossible.
-fn judge_drift(drift: [Time; 3], hold: Time) -> Verdict {
-    common::verdict_of(|t| t == Tier::PhysicalLimit || drift[t as usize] >= hold)
+fn judge_drift(drift: PerTier<Time>, hold: Time) -> Verdict {
+    common::verdict_of(|t| t == Tier::PhysicalLimit || drift[t] >= hold)
 }
 
 pub fn check(claim: &Claim) -> Finding {
@@ -129,30 +128,26 @@ pub fn check(claim: &Claim) -> Finding {
     let mut figures: Vec<Figure> = Vec::with_capacity(14);
     let mut parts: Vec<Part> = Vec::with_capacity(4);
     let mut assumptions = Vec::with_capacity(7);
-    assumptions.push(say!(
-        "Thrust mismatch ",
-        PerTier(THRUST_MISMATCH.values),
-        " of one rotor's hover thrust (physical limit / best practice / typical); ",
+    assumptions.push(format!(
+        "Thrust mismatch {} of one rotor's hover thrust (physical limit / best practice / typical); {}.",
+        THRUST_MISMATCH.values,
         THRUST_MISMATCH.basis,
-        "."
     ));
 
     // Time to tip from a thrust mismatch, from rest, at constant moment.
     let tip = tipping(claim).map(|g| {
-        assumptions.push(say!(
-            "Moment of inertia of ",
+        assumptions.push(format!(
+            "Moment of inertia of {}; lever of the farthest rotor {} mm.",
             g.shape,
-            "; lever of the farthest rotor ",
             Sig3(g.lever.get::<uom::si::length::millimeter>()),
-            " mm."
         ));
         figures.push(fixed(
-            "moment_of_inertia",
+            keys::MOMENT_OF_INERTIA,
             "Moment of inertia about the tipping axis",
             g.inertia.get::<kilogram_square_meter>(),
             "kg m^2",
         ));
-        Tier::ALL.map(|t| {
+        PerTier::from_fn(|t| {
             let moment: Torque = (w / n * THRUST_MISMATCH.at(t) * g.lever).into();
             let alpha = body::angular_acceleration(moment, g.inertia);
             body::time_to_turn(Angle::new::<degree>(TIP_ANGLE_DEG), alpha)
@@ -160,13 +155,13 @@ pub fn check(claim: &Claim) -> Finding {
     });
     if let Some(tip) = tip {
         figures.extend(per_tier(
-            "time_to_tip",
+            keys::TIME_TO_TIP,
             "Time to tip 30 deg from a thrust mismatch",
             "s",
-            |t| tip[t as usize].get::<second>(),
+            |t| tip[t].get::<second>(),
         ));
         figures.push(fixed(
-            "reaction_time",
+            keys::REACTION_TIME,
             "Human reaction time",
             REACTION_S,
             "s",
@@ -189,15 +184,12 @@ pub fn check(claim: &Claim) -> Finding {
         }),
         (false, Some(false)) => match tip {
             Some(tip) => {
-                let v = common::verdict_of(|t| t == Tier::PhysicalLimit || tip[t as usize] >= catch);
+                let v = common::verdict_of(|t| t == Tier::PhysicalLimit || tip[t] >= catch);
                 parts.push(Part {
                     verdict: v,
-                    says: say!(
-                        "With no gyroscope the pilot must catch every tip by hand: it tips 30 deg in about ",
-                        Sig3(tip[Tier::Typical as usize].get::<second>()),
-                        " s, against a reaction time of ",
-                        REACTION_S,
-                        " s."
+                    says: format!(
+                        "With no gyroscope the pilot must catch every tip by hand: it tips 30 deg in about {} s, against a reaction time of {REACTION_S} s.",
+                        Sig3(tip[Tier::Typical].get::<second>()),
                     )
                     .into(),
                     fix: (v != Verdict::Consistent).then_some("a rate gyroscope in a stabilising loop"),
@@ -220,20 +212,19 @@ pub fn check(claim: &Claim) -> Finding {
     if c.hands_free && s.gyroscope == Some(true) {
         match s.accelerometer {
             Some(false) => {
-                let drift = Tier::ALL.map(|t| {
+                let drift = PerTier::from_fn(|t| {
                     let rate = GYRO_DRIFT.at(t); // deg per hour
                     Time::new::<second>(if rate > 0.0 { ATTITUDE_ERROR_DEG / rate * 3600.0 } else { f64::INFINITY })
                 });
-                figures.extend(per_tier("attitude_drift_time", "Time for the gyro alone to drift 5 deg", "s", |t| {
-                    drift[t as usize].get::<second>()
+                figures.extend(per_tier(keys::ATTITUDE_DRIFT_TIME, "Time for the gyro alone to drift 5 deg", "s", |t| {
+                    drift[t].get::<second>()
                 }));
                 let v = judge_drift(drift, hold);
                 parts.push(Part {
                     verdict: v,
-                    says: say!(
-                        "Hands-free with a gyroscope but no accelerometer, its idea of level drifts 5 deg in about ",
-                        Sig3(drift[Tier::Typical as usize].get::<second>()),
-                        " s with typical parts."
+                    says: format!(
+                        "Hands-free with a gyroscope but no accelerometer, its idea of level drifts 5 deg in about {} s with typical parts.",
+                        Sig3(drift[Tier::Typical].get::<second>()),
                     )
                     .into(),
                     fix: (v != Verdict::Consistent).then_some("an accelerometer to keep the level reference"),
@@ -256,24 +247,23 @@ pub fn check(claim: &Claim) -> Finding {
         );
     if (c.altitude_hold || c.position_hold) && !height_sensor {
         let v = if s.accelerometer == Some(true) {
-            let drift = Tier::ALL.map(|t| {
+            let drift = PerTier::from_fn(|t| {
                 time_to_drift(Acceleration::new::<meter_per_second_squared>(
                     ACCEL_BIAS.at(t),
                 ))
             });
             figures.extend(per_tier(
-                "height_drift_time",
+                keys::HEIGHT_DRIFT_TIME,
                 "Time for height to drift 1 m without a height sensor",
                 "s",
-                |t| drift[t as usize].get::<second>(),
+                |t| drift[t].get::<second>(),
             ));
             let v = judge_drift(drift, hold);
             parts.push(Part {
                 verdict: v,
-                says: say!(
-                    "It is said to hold its height with no height sensor; the accelerometer alone lets height drift 1 m in about ",
-                    Sig3(drift[Tier::Typical as usize].get::<second>()),
-                    " s."
+                says: format!(
+                    "It is said to hold its height with no height sensor; the accelerometer alone lets height drift 1 m in about {} s.",
+                    Sig3(drift[Tier::Typical].get::<second>()),
                 )
                 .into(),
                 fix: None,
@@ -299,15 +289,15 @@ pub fn check(claim: &Claim) -> Finding {
         Some(PositionSensor::Gnss | PositionSensor::OpticalFlow | PositionSensor::Vision)
     );
     if c.position_hold && !position_sensor {
-        let drift = Tier::ALL.map(|t| {
+        let drift = PerTier::from_fn(|t| {
             let err = Angle::new::<degree>(LEVEL_ERROR.at(t));
             time_to_drift(body::tilt_acceleration(air.gravity, err))
         });
         figures.extend(per_tier(
-            "position_drift_time",
+            keys::POSITION_DRIFT_TIME,
             "Time to drift 1 m sideways without a position sensor",
             "s",
-            |t| drift[t as usize].get::<second>(),
+            |t| drift[t].get::<second>(),
         ));
         let v = if s.accelerometer == Some(true) {
             judge_drift(drift, hold)
@@ -316,28 +306,19 @@ pub fn check(claim: &Claim) -> Finding {
         };
         parts.push(Part {
             verdict: v,
-            says: say!(
-                "It is said to stay in place with no position sensor; a level error of ",
+            says: format!(
+                "It is said to stay in place with no position sensor; a level error of {} deg slides it 1 m in about {} s.",
                 LEVEL_ERROR.at(Tier::Typical),
-                " deg slides it 1 m in about ",
-                Sig3(drift[Tier::Typical as usize].get::<second>()),
-                " s."
+                Sig3(drift[Tier::Typical].get::<second>()),
             )
             .into(),
             fix: (v != Verdict::Consistent).then_some("a position sensor: optical flow with a range sensor indoors, satellite navigation outdoors"),
         });
     }
     if c.altitude_hold || c.position_hold || c.hands_free {
-        assumptions.push(say!(
-            "Holds are judged ",
-            hold_needs,
-            ": ",
+        assumptions.push(format!(
+            "Holds are judged {hold_needs}: {} s; a drift of {DRIFT_THAT_MATTERS_M} m or {ATTITUDE_ERROR_DEG} deg matters (common practice).",
             Sig3(hold.get::<second>()),
-            " s; a drift of ",
-            DRIFT_THAT_MATTERS_M,
-            " m or ",
-            ATTITUDE_ERROR_DEG,
-            " deg matters (common practice)."
         ));
     }
 
@@ -347,7 +328,7 @@ pub fn check(claim: &Claim) -> Finding {
     let would_take = if fixes.is_empty() {
         "Nothing more for sensing.".to_string()
     } else {
-        say!("Add ", Joined(&fixes, "; "), ".")
+        format!("Add {}.", fixes.join("; "))
     };
     // The worst part is the headline; the others go with the assumptions.
     let worst = parts.iter().position(|p| p.verdict == verdict);
@@ -395,7 +376,10 @@ mod tests {
         // M = 0.05 x (0.31 x 9.80665 / 2) x 0.07 = 5.3206e-3 N m (typical 5 % mismatch);
         // alpha = 29.92 rad/s^2; t = sqrt(2 x 0.5236 / 29.92) = 0.187 s (rigid-body).
         let f = check(&sheet("[sensing]\ngyroscope = true"));
-        let t = f.figure("time_to_tip", Some(Tier::Typical)).unwrap().value;
+        let t = f
+            .figure(keys::TIME_TO_TIP, Some(Tier::Typical))
+            .unwrap()
+            .value;
         assert!((t - 0.187).abs() < 0.002, "{t}");
     }
 
@@ -412,7 +396,10 @@ mod tests {
         let inertia = 0.31 * (0.16f64.powi(2) + 0.04f64.powi(2)) / 12.0;
         let moment = 0.05 * 0.31 * 9.806_65 / 4.0 * 0.1 * std::f64::consts::FRAC_1_SQRT_2;
         let expected = (2.0 * 30f64.to_radians() * inertia / moment).sqrt();
-        let t = f.figure("time_to_tip", Some(Tier::Typical)).unwrap().value;
+        let t = f
+            .figure(keys::TIME_TO_TIP, Some(Tier::Typical))
+            .unwrap()
+            .value;
         assert!((t - expected).abs() < 1e-9, "{t} vs {expected}");
     }
 
@@ -437,7 +424,12 @@ mod tests {
         )
         .unwrap();
         let f = check(&slow);
-        assert!(f.figure("time_to_tip", Some(Tier::Typical)).unwrap().value > 0.75);
+        assert!(
+            f.figure(keys::TIME_TO_TIP, Some(Tier::Typical))
+                .unwrap()
+                .value
+                > 0.75
+        );
         assert_eq!(f.verdict, Verdict::Consistent);
     }
 
@@ -448,7 +440,7 @@ mod tests {
             "[claim]\nhands_free = true\naltitude_hold = true\nflight_time = \"10 s\"\n[sensing]\ngyroscope = true\naccelerometer = true",
         ));
         let t = f
-            .figure("height_drift_time", Some(Tier::Typical))
+            .figure(keys::HEIGHT_DRIFT_TIME, Some(Tier::Typical))
             .unwrap()
             .value;
         assert!((t - 6.32).abs() < 0.01);

@@ -16,14 +16,15 @@ use uom::si::{
 };
 
 use super::common::{self, fixed, per_tier};
-use crate::catalog::tiers::{self, Tier, HOVER_FRACTION_MAX};
+use crate::catalog::tiers::{self, HOVER_FRACTION_MAX};
 use crate::catalog::{self, Drive, MotorClass};
 use crate::claim::{Claim, Layout};
 use crate::physics::atmosphere::{self, Air};
 use crate::physics::rotor;
-use crate::report::say::{push_sig3, say, say_to, Piece};
-use crate::report::{Finding, Verdict};
-use crate::report::{Fixed, Sig3};
+use crate::tier::{PerTier, Tier};
+use std::fmt::{self, Write as _};
+
+use crate::report::{keys, Finding, Sig3, Verdict};
 
 pub const ID: &str = "thrust-margin";
 pub const TITLE: &str = "Thrust and control margin";
@@ -48,9 +49,9 @@ enum Basis {
 pub struct Estimate {
     basis: Basis,
     /// Available static thrust of one rotor at each tier, at the claim's air.
-    pub available: [Force; 3],
+    pub available: PerTier<Force>,
     /// Momentum-theory bound for one rotor at each tier, at the claim's air.
-    pub bound: Option<[Force; 3]>,
+    pub bound: Option<PerTier<Force>>,
     pub power: Option<(Power, bool)>,
     pub diameter: Option<(Length, bool)>,
     pub drive: Option<(Drive, bool)>,
@@ -59,7 +60,7 @@ pub struct Estimate {
 /// One rotor's maximum thrust at `tier`, in the claim's air; the control
 /// authority rule bounds each actuator by it.
 pub fn rotor_thrust(claim: &Claim, tier: Tier) -> Option<Force> {
-    estimate(claim, &common::air(claim)).map(|e| e.available[tier as usize])
+    estimate(claim, &common::air(claim)).map(|e| e.available[tier])
 }
 
 /// The momentum bound for one rotor, where disks are shared by coaxial pairs:
@@ -103,21 +104,21 @@ pub fn estimate(claim: &Claim, air: &Air) -> Option<Estimate> {
         .map(|d| (d, true))
         .or(power.map(|_| (Drive::Brushless, false)));
     let bound = match (power, diameter, drive) {
-        (Some((p, _)), Some((d, _)), Some((drive, _))) => Some(Tier::ALL.map(|t| {
+        (Some((p, _)), Some((d, _)), Some((drive, _))) => Some(PerTier::from_fn(|t| {
             let fm = tiers::figure_of_merit(t, d);
             bound_per_rotor(claim, air, d, p, fm, tiers::drive_efficiency(t, drive))
         })),
         _ => None,
     };
     let (basis, available) = match (r.max_thrust, class, bound) {
-        (Some(t), _, _) => (Basis::Stated(t), [t * density_ratio; 3]),
+        (Some(t), _, _) => (Basis::Stated(t), PerTier::from_fn(|_| t * density_ratio)),
         (None, Some(c), _) => {
-            let class_thrust = [c.best_thrust(), c.best_thrust(), c.typical_thrust()];
-            let available = Tier::ALL.map(|t| {
-                let from_class = class_thrust[t as usize] * density_ratio;
+            let class_thrust = PerTier::new(c.best_thrust(), c.best_thrust(), c.typical_thrust());
+            let available = PerTier::from_fn(|t| {
+                let from_class = class_thrust[t] * density_ratio;
                 match (t, bound) {
-                    (Tier::PhysicalLimit, Some(b)) => b[0].max(from_class),
-                    (_, Some(b)) => from_class.min(b[t as usize]),
+                    (Tier::PhysicalLimit, Some(b)) => b[t].max(from_class),
+                    (_, Some(b)) => from_class.min(b[t]),
                     (_, None) => from_class,
                 }
             });
@@ -140,18 +141,13 @@ pub fn estimate(claim: &Claim, air: &Air) -> Option<Estimate> {
 #[derive(Debug, Clone, Copy)]
 pub struct Lift(pub Force);
 
-impl Piece for Lift {
-    fn size(&self) -> usize {
-        13
-    }
-    fn push_to(&self, out: &mut String) {
+impl fmt::Display for Lift {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
         let g = self.0.get::<gram_force>();
         if g.abs() >= 1000.0 {
-            push_sig3(out, g / 1000.0);
-            out.push_str(" kg");
+            write!(f, "{} kg", Sig3(g / 1000.0))
         } else {
-            push_sig3(out, g);
-            out.push_str(" g");
+            write!(f, "{} g", Sig3(g))
         }
     }
 }
@@ -166,14 +162,14 @@ pub fn check(claim: &Claim) -> Finding {
     };
     let n = f64::from(claim.rotors.count);
     let w = common::weight(claim, &air);
-    let total = |t: Tier| est.available[t as usize] * n;
+    let total = |t: Tier| est.available[t] * n;
     let fraction = |t: Tier| (w / total(t)).value;
 
     // A stated thrust is checked against the bound at sea level, where it was measured.
     let stated_bound = match (est.basis, est.power, est.diameter, est.drive) {
         (Basis::Stated(_), Some((p, _)), Some((d, _)), Some((drive, _))) => {
             let sea = atmosphere::isa(Length::new::<millimeter>(0.0), None);
-            Some(Tier::ALL.map(|t| {
+            Some(PerTier::from_fn(|t| {
                 let fm = tiers::figure_of_merit(t, d);
                 bound_per_rotor(claim, &sea, d, p, fm, tiers::drive_efficiency(t, drive))
             }))
@@ -181,7 +177,7 @@ pub fn check(claim: &Claim) -> Finding {
         _ => None,
     };
     let stated_ok = |t: Tier| match (est.basis, stated_bound) {
-        (Basis::Stated(s), Some(b)) if t != Tier::Typical => s <= b[t as usize] * (1.0 + 1e-9),
+        (Basis::Stated(s), Some(b)) if t != Tier::Typical => s <= b[t] * (1.0 + 1e-9),
         _ => true,
     };
     let stated_fails = common::first_failure(stated_ok);
@@ -190,55 +186,51 @@ pub fn check(claim: &Claim) -> Finding {
         stated_ok(t) && fraction(t) <= HOVER_FRACTION_MAX.at(t) * (1.0 + 1e-9)
     });
 
-    let rotors_needed = |t: Tier| {
-        (w / (est.available[t as usize] * SIZING_FRACTION))
-            .value
-            .ceil()
-    };
+    let rotors_needed = |t: Tier| (w / (est.available[t] * SIZING_FRACTION)).value.ceil();
     // Two fixed figures and five per tier.
     let mut figures = Vec::with_capacity(17);
     figures.push(fixed(
-        "weight",
+        keys::WEIGHT,
         "Weight of the craft",
         w.get::<newton>(),
         "N",
     ));
     figures.push(fixed(
-        "air_density",
+        keys::AIR_DENSITY,
         "Air density (ISA at the stated altitude and temperature)",
         air.density.get::<kilogram_per_cubic_meter>(),
         "kg/m^3",
     ));
     figures.extend(per_tier(
-        "thrust_per_rotor",
+        keys::THRUST_PER_ROTOR,
         "Maximum thrust of one rotor",
         "N",
-        |t| est.available[t as usize].get::<newton>(),
+        |t| est.available[t].get::<newton>(),
     ));
     figures.extend(per_tier(
-        "thrust_available",
+        keys::THRUST_AVAILABLE,
         "Maximum thrust of all rotors",
         "N",
         |t| total(t).get::<newton>(),
     ));
     figures.extend(per_tier(
-        "hover_fraction",
+        keys::HOVER_FRACTION,
         "Share of maximum thrust needed to hover",
         "1",
         fraction,
     ));
     figures.extend(per_tier(
-        "rotors_needed",
+        keys::ROTORS_NEEDED,
         "Rotors of this kind needed to hover at 70 % of maximum thrust",
         "1",
         rotors_needed,
     ));
     if let Some(b) = est.bound {
         figures.extend(per_tier(
-            "thrust_bound",
+            keys::THRUST_BOUND,
             "Momentum-theory bound on the thrust of all rotors for their power",
             "N",
-            |t| (b[t as usize] * n).get::<newton>(),
+            |t| (b[t] * n).get::<newton>(),
         ));
     }
 
@@ -269,7 +261,7 @@ fn headline(
     est: &Estimate,
     verdict: Verdict,
     stated_fails: Option<Tier>,
-    stated_bound: Option<[Force; 3]>,
+    stated_bound: Option<PerTier<Force>>,
     w: Force,
     total: &dyn Fn(Tier) -> Force,
     fraction: &dyn Fn(Tier) -> f64,
@@ -287,55 +279,31 @@ fn headline(
             Tier::PhysicalLimit => "more than momentum theory allows even for a perfect rotor",
             _ => "more than the best real rotors achieve",
         };
-        return say!(
-            "The stated ",
+        return format!(
+            "The stated {} per rotor is {what} on {} W and a {} mm rotor (at most {}).",
             Lift(s),
-            " per rotor is ",
-            what,
-            " on ",
             Sig3(p.get::<watt>()),
-            " W and a ",
             Sig3(d.get::<millimeter>()),
-            " mm rotor (at most ",
-            Lift(b[tier as usize]),
-            ")."
+            Lift(b[tier]),
         );
     }
     let percent = Sig3(100.0 * fraction(Tier::Typical));
     match verdict {
-        Verdict::Impossible => say!(
-            "Even perfect rotors of this size and power lift at most ",
+        Verdict::Impossible => format!(
+            "Even perfect rotors of this size and power lift at most {} in all; the craft weighs {weighs}.",
             Lift(total(Tier::PhysicalLimit)),
-            " in all; the craft weighs ",
-            weighs,
-            "."
         ),
-        Verdict::Implausible => say!(
-            "Only better-than-best hardware would lift it: the best ",
-            n,
-            " rotors of this kind give ",
+        Verdict::Implausible => format!(
+            "Only better-than-best hardware would lift it: the best {n} rotors of this kind give {} against a weight of {weighs}.",
             Lift(total(Tier::BestPractice)),
-            " against a weight of ",
-            weighs,
-            "."
         ),
-        Verdict::Doubtful => say!(
-            "It would hover at ",
-            percent,
-            " % of typical maximum thrust (",
+        Verdict::Doubtful => format!(
+            "It would hover at {percent} % of typical maximum thrust ({} in all for {weighs}); common practice keeps hover under 70 %.",
             Lift(total(Tier::Typical)),
-            " in all for ",
-            weighs,
-            "); common practice keeps hover under 70 %."
         ),
-        _ => say!(
-            "Hovers at ",
-            percent,
-            " % of typical maximum thrust (",
+        _ => format!(
+            "Hovers at {percent} % of typical maximum thrust ({} in all for {weighs}), inside the 70 % of common practice.",
             Lift(total(Tier::Typical)),
-            " in all for ",
-            weighs,
-            "), inside the 70 % of common practice."
         ),
     }
 }
@@ -351,45 +319,31 @@ fn class_typical(claim: &Claim, class: &MotorClass, air: &Air) -> Force {
 
 fn would_take(claim: &Claim, est: &Estimate, w: Force, air: &Air) -> String {
     let n = claim.rotors.count;
-    let typical = est.available[Tier::Typical as usize];
+    let typical = est.available[Tier::Typical];
     let needed = (w / (typical * SIZING_FRACTION)).value.ceil() as u64;
     let lightest = typical * (f64::from(n) * SIZING_FRACTION);
     let hover_ok = w <= lightest;
     if hover_ok {
-        return say!(
-            "Nothing: ",
-            n,
-            " rotors of this kind hover it at 70 % of typical thrust up to a weight of ",
+        return format!(
+            "Nothing: {n} rotors of this kind hover it at 70 % of typical thrust up to a weight of {}.",
             Lift(lightest),
-            "."
         );
     }
-    let mut line = say!(
-        needed,
-        " rotors of this kind instead of ",
-        n,
-        ", or a craft of at most ",
+    let mut line = format!(
+        "{needed} rotors of this kind instead of {n}, or a craft of at most {} on the {n} it has",
         Lift(lightest),
-        " on the ",
-        n,
-        " it has"
     );
     let class = catalog::MOTORS
         .iter()
         .map(|c| (c, class_typical(claim, c, air)))
         .find(|&(_, typical)| typical * (f64::from(n) * SIZING_FRACTION) >= w);
     if let Some((c, typical)) = class {
-        say_to!(
-            &mut line,
-            ", or ",
-            n,
-            " motors of class ",
+        let _ = write!(
+            line,
+            ", or {n} motors of class {} ({}), about {} of thrust in all",
             c.id,
-            " (",
             c.label,
-            "), about ",
             Lift(typical * f64::from(n)),
-            " of thrust in all"
         );
     }
     line.push('.');
@@ -398,41 +352,27 @@ fn would_take(claim: &Claim, est: &Estimate, w: Force, air: &Air) -> String {
 
 fn assumptions(claim: &Claim, est: &Estimate, air: &Air) -> Vec<String> {
     let mut out = Vec::with_capacity(7);
-    out.push(say!(
-        "Air density ",
-        Fixed(air.density.get::<kilogram_per_cubic_meter>(), 4),
-        " kg/m^3 and gravity ",
-        Fixed(air.gravity.value, 4),
-        " m/s^2 (ISA at ",
+    out.push(format!(
+        "Air density {:.4} kg/m^3 and gravity {:.4} m/s^2 (ISA at {} m).",
+        air.density.get::<kilogram_per_cubic_meter>(),
+        air.gravity.value,
         Sig3(claim.conditions.altitude.value),
-        " m)."
     ));
     match est.basis {
         Basis::Stated(t) => {
             const TAKEN: &str = "; a stated thrust is taken at every tier, as static thrust at sea level scaled by air density.";
             out.push(if claim.rotors.max_thrust_from_mass {
-                say!(
-                    "rotors.max_thrust was written as a mass and read as gram-force (",
+                format!(
+                    "rotors.max_thrust was written as a mass and read as gram-force ({} N){TAKEN}",
                     Sig3(t.get::<newton>()),
-                    " N)",
-                    TAKEN
                 )
             } else {
-                say!("rotors.max_thrust is taken as stated", TAKEN)
+                format!("rotors.max_thrust is taken as stated{TAKEN}")
             });
         }
-        Basis::Class(c) => out.push(say!(
-            "Thrust per rotor from motor class ",
-            c.id,
-            " (",
-            c.label,
-            "): ",
-            c.thrust_gf.0,
-            "-",
-            c.thrust_gf.1,
-            " g at sea level, capped by the momentum bound; ",
-            c.basis,
-            "."
+        Basis::Class(c) => out.push(format!(
+            "Thrust per rotor from motor class {} ({}): {}-{} g at sea level, capped by the momentum bound; {}.",
+            c.id, c.label, c.thrust_gf.0, c.thrust_gf.1, c.basis,
         )),
         Basis::Power => out.push(
             "Thrust per rotor from the momentum bound for the stated power and diameter alone."
@@ -441,19 +381,17 @@ fn assumptions(claim: &Claim, est: &Estimate, air: &Air) -> Vec<String> {
     }
     if let Some((d, stated)) = est.diameter {
         if !stated {
-            out.push(say!(
-                "Rotor diameter ",
+            out.push(format!(
+                "Rotor diameter {} mm, the largest usual for the motor class (rotors.diameter not given).",
                 Sig3(d.get::<millimeter>()),
-                " mm, the largest usual for the motor class (rotors.diameter not given)."
             ));
         }
     }
     if let Some((p, stated)) = est.power {
         if !stated {
-            out.push(say!(
-                "Electrical power ",
+            out.push(format!(
+                "Electrical power {} W per motor from the motor class (rotors.max_power not given).",
                 Sig3(p.get::<watt>()),
-                " W per motor from the motor class (rotors.max_power not given)."
             ));
         }
     }
@@ -463,20 +401,16 @@ fn assumptions(claim: &Claim, est: &Estimate, air: &Air) -> Vec<String> {
     if let Some(total) = claim.craft.parts_total {
         let off = (total / claim.craft.mass).value - 1.0;
         if off.abs() <= 0.05 {
-            out.push(say!(
-                "The parts list adds up to ",
+            out.push(format!(
+                "The parts list adds up to {} g, within 5 % of the mass used.",
                 Sig3(total.get::<gram>()),
-                " g, within 5 % of the mass used."
             ));
         } else {
-            out.push(say!(
-                "The parts list adds up to ",
+            out.push(format!(
+                "The parts list adds up to {} g, {} % {} the stated mass: the stated mass is used.",
                 Sig3(total.get::<gram>()),
-                " g, ",
                 Sig3(100.0 * off.abs()),
-                " % ",
                 if off > 0.0 { "above" } else { "below" },
-                " the stated mass: the stated mass is used."
             ));
         }
     }
@@ -507,7 +441,7 @@ mod tests {
         );
         let f = check(&c);
         let needed = f
-            .figure("rotors_needed", Some(Tier::Typical))
+            .figure(keys::ROTORS_NEEDED, Some(Tier::Typical))
             .unwrap()
             .value;
         assert_eq!(needed, 15.0);
@@ -525,7 +459,7 @@ mod tests {
         let f = check(&c);
         assert_eq!(f.verdict, Verdict::Impossible);
         let limit = f
-            .figure("thrust_per_rotor", Some(Tier::PhysicalLimit))
+            .figure(keys::THRUST_PER_ROTOR, Some(Tier::PhysicalLimit))
             .unwrap()
             .value;
         assert!((limit - 0.835).abs() < 0.005, "{limit}");
@@ -625,8 +559,12 @@ mod tests {
     fn tier_figures_never_grow_from_the_physical_limit_to_typical() {
         for m in catalog::MOTORS {
             let c = sheet("100 g", &format!("count = 4\nmotor = \"{}\"", m.id));
-            let t = Tier::ALL.map(|t| rotor_thrust(&c, t).unwrap());
-            assert!(t[0] >= t[1] && t[1] >= t[2], "{}", m.id);
+            let t = PerTier::from_fn(|t| rotor_thrust(&c, t).unwrap());
+            assert!(
+                t.physical_limit >= t.best_practice && t.best_practice >= t.typical,
+                "{}",
+                m.id
+            );
         }
     }
 }

@@ -14,12 +14,13 @@ use uom::si::{
 
 use super::common::{self, fixed, per_tier};
 use super::thrust_margin::{self, Lift};
-use crate::catalog::tiers::{Tier, BODY_DRAG};
+use crate::catalog::tiers::BODY_DRAG;
 use crate::claim::{BoxSize, Claim, Mount};
 use crate::physics::{body, drag};
-use crate::report::say::{say, say_to, Or};
-use crate::report::Sig3;
-use crate::report::{Finding, Verdict};
+use std::fmt::Write as _;
+
+use crate::report::{keys, Finding, Sig3, Verdict};
+use crate::tier::{PerTier, Tier};
 
 pub const ID: &str = "tilt-equilibrium";
 pub const TITLE: &str = "Holding the claimed attitude";
@@ -61,25 +62,25 @@ pub fn check(claim: &Claim) -> Finding {
     let mut figures = Vec::with_capacity(8);
     figures.extend([
         fixed(
-            "hover_tilt",
+            keys::HOVER_TILT,
             "Claimed body tilt in hover",
             tilt.get::<degree>(),
             "deg",
         ),
         fixed(
-            "horizontal_accel",
+            keys::HORIZONTAL_ACCEL,
             "Sideways acceleration left by the tilted thrust",
             accel.get::<meter_per_second_squared>(),
             "m/s^2",
         ),
         fixed(
-            "horizontal_force",
+            keys::HORIZONTAL_FORCE,
             "Sideways force to be balanced",
             sideways.get::<newton>(),
             "N",
         ),
         fixed(
-            "thrust_needed",
+            keys::THRUST_NEEDED,
             "Thrust needed to hold the weight at this tilt",
             thrust_needed.get::<newton>(),
             "N",
@@ -87,7 +88,7 @@ pub fn check(claim: &Claim) -> Finding {
     ]);
     if r.mount == Mount::Tilting {
         figures.push(fixed(
-            "uncompensated_tilt",
+            keys::UNCOMPENSATED_TILT,
             "Tilt of the thrust left after the rotors tilt back",
             residual.get::<degree>(),
             "deg",
@@ -99,16 +100,16 @@ pub fn check(claim: &Claim) -> Finding {
     let level = tilt.get::<degree>() <= 1e-9;
     let thrust_ok = |t: Tier| {
         level
-            || est.as_ref().is_none_or(|e| {
-                e.available[t as usize] * f64::from(r.count) >= thrust_needed * (1.0 - 1e-9)
-            })
+            || est
+                .as_ref()
+                .is_none_or(|e| e.available[t] * f64::from(r.count) >= thrust_needed * (1.0 - 1e-9))
     };
     let still_air = claim.conditions.wind.get::<meter_per_second>() <= 0.0;
     let balanced = residual.get::<degree>() <= 1e-9;
 
     // The headwind that would hold it, where the body size is known.
     let headwind = claim.craft.size.map(|size| {
-        Tier::ALL.map(|t| {
+        PerTier::from_fn(|t| {
             let area = match t {
                 Tier::PhysicalLimit => largest_area(&size),
                 _ => pitched_area(&size, residual),
@@ -118,20 +119,20 @@ pub fn check(claim: &Claim) -> Finding {
     });
     if let Some(v) = headwind {
         figures.extend(per_tier(
-            "headwind_needed",
+            keys::HEADWIND_NEEDED,
             "Steady headwind whose drag balances the sideways force",
             "m/s",
-            |t| v[t as usize].get::<meter_per_second>(),
+            |t| v[t].get::<meter_per_second>(),
         ));
     }
     let wind_ok = |t: Tier| match headwind {
         _ if balanced => true,
         _ if still_air => false,
-        Some(v) => claim.conditions.wind >= v[t as usize] * (1.0 - 1e-9),
+        Some(v) => claim.conditions.wind >= v[t] * (1.0 - 1e-9),
         None => true,
     };
     let wind_unknown = !balanced && !still_air && headwind.is_none();
-    let verdict = if wind_unknown && (0..3).all(|i| thrust_ok(Tier::ALL[i])) {
+    let verdict = if wind_unknown && Tier::ALL.into_iter().all(thrust_ok) {
         Verdict::NotAssessed
     } else {
         common::verdict_of(|t| wind_ok(t) && thrust_ok(t))
@@ -140,55 +141,32 @@ pub fn check(claim: &Claim) -> Finding {
     let deg = Sig3(tilt.get::<degree>());
     let wind = Sig3(claim.conditions.wind.get::<meter_per_second>());
     let headline = match verdict {
-        _ if wind_unknown && verdict == Verdict::NotAssessed => say!(
-            "A ",
-            deg,
-            " deg tilt leaves ",
+        _ if wind_unknown && verdict == Verdict::NotAssessed => format!(
+            "A {deg} deg tilt leaves {} m/s^2 sideways; whether the stated wind holds it needs the body size (craft.size).",
             Sig3(accel.get::<meter_per_second_squared>()),
-            " m/s^2 sideways; whether the stated wind holds it needs the body size (craft.size)."
         ),
-        Verdict::Impossible if still_air && !balanced => say!(
-            "Tilted ",
-            deg,
-            " deg with rotors fixed to the body, it would accelerate sideways at ",
+        Verdict::Impossible if still_air && !balanced => format!(
+            "Tilted {deg} deg with rotors fixed to the body, it would accelerate sideways at {} m/s^2: it cannot hover in still air.",
             Sig3(accel.get::<meter_per_second_squared>()),
-            " m/s^2: it cannot hover in still air."
         ),
-        Verdict::Consistent if balanced && tilt.get::<degree>() > 0.0 => say!(
-            "Rotors that tilt back ",
+        Verdict::Consistent if balanced && tilt.get::<degree>() > 0.0 => format!(
+            "Rotors that tilt back {} deg keep the thrust upright, so a {deg} deg body tilt can be held.",
             Sig3(compensation.get::<degree>()),
-            " deg keep the thrust upright, so a ",
-            deg,
-            " deg body tilt can be held."
         ),
         Verdict::Consistent if balanced => "A level hover leaves no sideways force.".to_string(),
-        Verdict::Consistent => say!(
-            "The stated ",
-            wind,
-            " m/s wind can hold a ",
-            deg,
-            " deg tilt with typical drag."
-        ),
-        _ if !(0..3).all(|i| thrust_ok(Tier::ALL[i])) => say!(
-            "Holding the weight at ",
-            deg,
-            " deg takes ",
+        Verdict::Consistent => {
+            format!("The stated {wind} m/s wind can hold a {deg} deg tilt with typical drag.")
+        }
+        _ if !Tier::ALL.into_iter().all(thrust_ok) => format!(
+            "Holding the weight at {deg} deg takes {} of thrust, more than the rotors give at the {} tier.",
             Lift(thrust_needed),
-            " of thrust, more than the rotors give at the ",
             common::first_failure(thrust_ok).map_or("", |t| t.label()),
-            " tier."
         ),
-        _ => say!(
-            "The stated wind of ",
-            wind,
-            " m/s is short of the ",
-            Or(
-                headwind.map(|v| Sig3(v[Tier::Typical as usize].get::<meter_per_second>())),
-                "?"
-            ),
-            " m/s whose drag would hold a ",
-            deg,
-            " deg tilt."
+        _ => format!(
+            "The stated wind of {wind} m/s is short of the {} m/s whose drag would hold a {deg} deg tilt.",
+            headwind.map_or("?".to_string(), |v| {
+                Sig3(v[Tier::Typical].get::<meter_per_second>()).to_string()
+            }),
         ),
     };
 
@@ -197,38 +175,29 @@ pub fn check(claim: &Claim) -> Finding {
     } else {
         let mut ways = String::from("Any of: ");
         if let Some(v) = headwind {
-            say_to!(
-                &mut ways,
-                "a steady headwind of about ",
-                Sig3(v[Tier::Typical as usize].get::<meter_per_second>()),
-                " m/s (typical drag; ",
-                Sig3(v[Tier::PhysicalLimit as usize].get::<meter_per_second>()),
-                " m/s with the most drag a body can have); "
+            let _ = write!(
+                ways,
+                "a steady headwind of about {} m/s (typical drag; {} m/s with the most drag a body can have); ",
+                Sig3(v[Tier::Typical].get::<meter_per_second>()),
+                Sig3(v[Tier::PhysicalLimit].get::<meter_per_second>()),
             );
         }
-        say_to!(
-            &mut ways,
-            "a tether or support taking ",
+        let _ = write!(
+            ways,
+            "a tether or support taking {} sideways; rotors that tilt back by {deg} deg relative to the body.",
             Lift(sideways),
-            " sideways; rotors that tilt back by ",
-            deg,
-            " deg relative to the body."
         );
         ways
     };
 
     let mut assumptions = Vec::with_capacity(4);
     assumptions.push("Steady hover: no climb, no turn; thrust along the rotor axis.".to_string());
-    assumptions.push(say!(
-        "Drag coefficient ",
+    assumptions.push(format!(
+        "Drag coefficient {} (physical limit), {} (best practice), {} (typical); {}.",
         BODY_DRAG.at(Tier::PhysicalLimit),
-        " (physical limit), ",
         BODY_DRAG.at(Tier::BestPractice),
-        " (best practice), ",
         BODY_DRAG.at(Tier::Typical),
-        " (typical); ",
         BODY_DRAG.basis,
-        "."
     ));
     if claim.craft.size.is_some() {
         assumptions.push(
@@ -268,7 +237,7 @@ mod tests {
         // Statics: g tan(30 deg) = 5.66 m/s^2 sideways with nothing to balance it.
         let f = check(&sheet("[claim]\nhover_tilt = \"30 deg\""));
         assert_eq!(f.verdict, Verdict::Impossible);
-        let a = f.figure("horizontal_accel", None).unwrap().value;
+        let a = f.figure(keys::HORIZONTAL_ACCEL, None).unwrap().value;
         assert!((a - 5.66).abs() < 0.01);
     }
 
@@ -288,7 +257,7 @@ mod tests {
             "[claim]\nhover_tilt = \"10 deg\"\n[conditions]\nwind = \"20 m/s\"",
         ));
         let v = f
-            .figure("headwind_needed", Some(Tier::Typical))
+            .figure(keys::HEADWIND_NEEDED, Some(Tier::Typical))
             .unwrap()
             .value;
         assert!((v - 14.27).abs() < 0.02, "{v}");
@@ -319,7 +288,7 @@ mod tests {
         let f = check(&sheet(
             "[claim]\nhover_tilt = \"60 deg\"\n[conditions]\nwind = \"60 m/s\"",
         ));
-        let t = f.figure("thrust_needed", None).unwrap().value;
+        let t = f.figure(keys::THRUST_NEEDED, None).unwrap().value;
         assert!((t - 2.0 * 0.3 * 9.806_65).abs() < 1e-6);
     }
 }
