@@ -90,6 +90,23 @@ pub const SOURCES: &[Source] = &[
                  38(5), 2015. Available control authority index (ACAI): the distance from the hover \
                  point to the boundary of the attainable force and moment set.",
     },
+    Source {
+        id: "coaxial-rotor",
+        title: "Momentum theory of the coaxial rotor; Harrington's coaxial rotor tests",
+        detail: "Leishman, Principles of Helicopter Aerodynamics, 2nd ed., 2006, the coaxial \
+                 rotor: induced power of a pair against two isolated rotors at the same total \
+                 thrust, kappa_int = sqrt 2 when the rotors act as one disk, 1.2808 for the ideal \
+                 pair with the lower rotor in the upper's contracted wake; thrust at a given power \
+                 scales as kappa_int^(-2/3). Harrington, NACA TN 2318, 1951: measured pairs near 1.16.",
+    },
+    Source {
+        id: "glauert-forward",
+        title: "Momentum theory of the rotor in forward flight (Glauert)",
+        detail: "Glauert, A General Theory of the Autogyro, ARC R&M 1111, 1926; Leishman, \
+                 Principles of Helicopter Aerodynamics, 2nd ed., 2006, ch. 2 and 5: induced \
+                 velocity v_i = v_h^2 / sqrt((V cos a)^2 + (V sin a + v_i)^2); power in level \
+                 flight = induced + profile + parasite (1/2 rho V^3 f), least at the bucket speed.",
+    },
 ];
 
 pub fn get(id: &str) -> Option<&'static Source> {

@@ -7,4 +7,5 @@ pub mod battery;
 pub mod body;
 pub mod control;
 pub mod drag;
+pub mod forward;
 pub mod rotor;

@@ -30,6 +30,19 @@ pub fn disk_loading(thrust: Force, area: Area) -> uom::si::f64::Pressure {
     thrust / area
 }
 
+/// Thrust of a rotor of a coaxial pair at a given power, relative to an
+/// isolated rotor: kappa_int^(-2/3) (`coaxial-rotor`).
+pub fn coaxial_thrust_factor(interference: f64) -> f64 {
+    interference.powf(-2.0 / 3.0)
+}
+
+/// The disk area that stands for one rotor of a coaxial pair in the hover
+/// formulas: P = kappa T^(3/2) / sqrt(2 rho A) = T^(3/2) / sqrt(2 rho A / kappa^2),
+/// so A_eff = A / kappa_int^2 (`coaxial-rotor`).
+pub fn coaxial_effective_area(area: Area, interference: f64) -> Area {
+    area / (interference * interference)
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;
@@ -37,6 +50,30 @@ mod tests {
         area::square_meter, force::newton, length::meter, mass_density::kilogram_per_cubic_meter,
         power::watt, velocity::meter_per_second,
     };
+
+    #[test]
+    fn a_coaxial_pair_holds_the_thrust_its_interference_allows() {
+        // Leishman (2006), momentum theory of the coaxial rotor: thrust at a given power
+        // scales as kappa_int^(-2/3): 0.848 for the ideal pair (1.2808), 0.794 for one
+        // shared disk (sqrt 2); Harrington (NACA TN 2318, 1951) measured about 1.16: 0.906.
+        assert!((coaxial_thrust_factor(1.2808) - 0.848).abs() < 5e-4);
+        assert!((coaxial_thrust_factor(2f64.sqrt()) - 0.794).abs() < 5e-4);
+        assert!((coaxial_thrust_factor(1.16) - 0.906).abs() < 5e-4);
+    }
+
+    #[test]
+    fn the_effective_area_of_a_paired_rotor_gives_its_interference_in_power_and_thrust() {
+        // P(A / kappa^2) = kappa P(A), and the thrust bound at fixed power falls by kappa^(-2/3).
+        let a = Area::new::<square_meter>(0.03);
+        let t = Force::new::<newton>(4.0);
+        let k = 1.2808;
+        let eff = coaxial_effective_area(a, k);
+        let ratio = (ideal_power(t, rho0(), eff) / ideal_power(t, rho0(), a)).value;
+        assert!((ratio - k).abs() < 1e-12);
+        let p = Power::new::<watt>(20.0);
+        let thrust = (thrust_bound(rho0(), eff, p) / thrust_bound(rho0(), a, p)).value;
+        assert!((thrust - coaxial_thrust_factor(k)).abs() < 1e-12);
+    }
 
     fn rho0() -> MassDensity {
         MassDensity::new::<kilogram_per_cubic_meter>(1.225)

@@ -3,10 +3,13 @@
 
 use std::borrow::Cow;
 
-use uom::si::f64::{Force, Length};
+use uom::si::f64::{Area, Force, Length};
+use uom::si::length::millimeter;
 
-use crate::claim::Claim;
+use crate::catalog::tiers::COAXIAL_INTERFERENCE;
+use crate::claim::{Claim, Layout};
 use crate::physics::atmosphere::{self, Air};
+use crate::physics::rotor;
 use crate::report::{Figure, Verdict};
 use crate::tier::Tier;
 
@@ -88,6 +91,38 @@ pub fn rotor_diameter(claim: &Claim) -> Option<(Length, bool)> {
     }
 }
 
+/// Rotors that share their axis with another, as a coaxial pair does: both
+/// rotors of a `coaxial` layout, and in a custom layout each rotor placed
+/// within 1 mm of another's axis (`coaxial-rotor`).
+pub fn paired_rotors(claim: &Claim) -> u32 {
+    let r = &claim.rotors;
+    match r.layout {
+        Some(Layout::Coaxial) => r.count,
+        Some(Layout::Custom) => {
+            let near = Length::new::<millimeter>(1.0);
+            let shares_axis = |i: usize| {
+                let a = &r.at[i];
+                r.at.iter()
+                    .enumerate()
+                    .any(|(j, b)| j != i && (a.x - b.x).abs() <= near && (a.y - b.y).abs() <= near)
+            };
+            (0..r.at.len()).filter(|&i| shares_axis(i)).count() as u32
+        }
+        _ => 0,
+    }
+}
+
+/// The disk area of all rotors as the hover formulas take it at `tier`:
+/// A per isolated rotor and A / kappa_int^2 per rotor of a coaxial pair, with
+/// kappa_int from the tier table, so that every rule charges a pair the same
+/// interference (`coaxial-rotor`).
+pub fn effective_disk_area(claim: &Claim, diameter: Length, tier: Tier) -> Area {
+    let one = rotor::disk_area(diameter);
+    let paired = f64::from(paired_rotors(claim));
+    let isolated = f64::from(claim.rotors.count) - paired;
+    one * isolated + rotor::coaxial_effective_area(one, COAXIAL_INTERFERENCE.at(tier)) * paired
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;
@@ -100,5 +135,45 @@ mod tests {
             Some(Tier::BestPractice)
         );
         assert_eq!(verdict_of(|_| false), Verdict::Impossible);
+    }
+
+    fn rotors(lines: &str) -> Claim {
+        let text = format!("title = \"t\"\n[craft]\nmass = \"1 kg\"\n[rotors]\n{lines}\n");
+        crate::claim::parse(&text, crate::claim::Format::Toml).unwrap()
+    }
+
+    #[test]
+    fn rotors_that_share_an_axis_are_paired_in_presets_and_custom_layouts() {
+        assert_eq!(paired_rotors(&rotors("layout = \"coaxial\"")), 2);
+        assert_eq!(
+            paired_rotors(&rotors("layout = \"quad-x\"\narm = \"0.2 m\"")),
+            0
+        );
+        // An X8 placed by hand: four arms, two rotors on each, one above the other.
+        let mut at = String::new();
+        for (x, y) in [(1, 1), (1, -1), (-1, -1), (-1, 1)] {
+            for (z, spin) in [(30, "cw"), (-30, "ccw")] {
+                at += &format!(
+                    "[[rotors.at]]\nx = \"{} mm\"\ny = \"{} mm\"\nz = \"{z} mm\"\nspin = \"{spin}\"\n",
+                    x * 200,
+                    y * 200
+                );
+            }
+        }
+        let x8 = rotors(&format!("count = 8\nlayout = \"custom\"\n{at}"));
+        assert_eq!(paired_rotors(&x8), 8);
+    }
+
+    #[test]
+    fn a_coaxial_pair_has_the_disk_area_of_its_interference() {
+        // coaxial-rotor: each rotor of a pair counts as A / kappa^2; kappa at the typical
+        // tier is the ideal pair's 1.2808 (Leishman 2006), so two rotors give
+        // 2 A / 1.2808^2 = 1.2192 A.
+        let d = Length::new::<millimeter>(254.0);
+        let one = rotor::disk_area(d);
+        let pair = effective_disk_area(&rotors("layout = \"coaxial\""), d, Tier::Typical);
+        assert!(((pair / one).value - 2.0 / 1.2808f64.powi(2)).abs() < 1e-12);
+        let quad = rotors("layout = \"quad-x\"\narm = \"0.2 m\"");
+        assert!(((effective_disk_area(&quad, d, Tier::Typical) / one).value - 4.0).abs() < 1e-12);
     }
 }
