@@ -13,9 +13,10 @@ use askama::filters::{escape, Html};
 
 use crate::catalog::tiers::{self, Tier};
 use crate::claim::{Claim, Spin};
-use crate::report::{Finding, Report, Sig3};
+use crate::report::{keys, Finding, Report, Sig3};
 
 use crate::rules::control_authority::{self, LayoutView};
+use crate::rules::{energy_budget, thrust_margin, tilt_equilibrium};
 
 use super::layout;
 
@@ -268,8 +269,8 @@ impl Forces {
     /// weight vertically, T cos(theta) = W, so T = W / cos(theta) and the
     /// horizontal remainder is W tan(theta) (statics).
     pub fn of(report: &Report, claim: &Claim) -> Option<Forces> {
-        let tilt = report.finding("tilt-equilibrium");
-        let tilt_deg = value(tilt, "hover_tilt", None)
+        let tilt = report.finding(tilt_equilibrium::ID);
+        let tilt_deg = value(tilt, keys::HOVER_TILT, None)
             .or_else(|| {
                 claim
                     .claim
@@ -281,12 +282,12 @@ impl Forces {
             return None;
         }
         let cos = tilt_deg.to_radians().cos();
-        let weight = value(report.finding("thrust-margin"), "weight", None)
-            .or_else(|| value(tilt, "thrust_needed", None).map(|t| t * cos))
+        let weight = value(report.finding(thrust_margin::ID), keys::WEIGHT, None)
+            .or_else(|| value(tilt, keys::THRUST_NEEDED, None).map(|t| t * cos))
             .filter(|w| *w > 0.0)?;
-        let thrust = value(tilt, "thrust_needed", None).unwrap_or(weight / cos);
-        let unbalanced =
-            value(tilt, "horizontal_force", None).unwrap_or(weight * tilt_deg.to_radians().tan());
+        let thrust = value(tilt, keys::THRUST_NEEDED, None).unwrap_or(weight / cos);
+        let unbalanced = value(tilt, keys::HORIZONTAL_FORCE, None)
+            .unwrap_or(weight * tilt_deg.to_radians().tan());
         Some(Forces {
             tilt_deg,
             weight,
@@ -452,13 +453,13 @@ fn bar_label(svg: &mut Svg, end: f64, y: f64, text: &str) {
 pub fn thrust_bar(report: &Report) -> Drawing {
     const ID: &str = "fig-thrust";
     const TITLE: &str = "Thrust available and needed";
-    let finding = report.finding("thrust-margin");
-    let Some(weight) = value(finding, "weight", None).filter(|w| *w > 0.0) else {
+    let finding = report.finding(thrust_margin::ID);
+    let Some(weight) = value(finding, keys::WEIGHT, None).filter(|w| *w > 0.0) else {
         return Drawing::omitted(ID, TITLE, "the thrust check gives no weight.");
     };
     let rows: Vec<(Tier, f64)> = Tier::ALL
         .into_iter()
-        .filter_map(|t| value(finding, "thrust_available", Some(t)).map(|v| (t, v)))
+        .filter_map(|t| value(finding, keys::THRUST_AVAILABLE, Some(t)).map(|v| (t, v)))
         .collect();
     if rows.is_empty() {
         return Drawing::omitted(ID, TITLE, "the thrust check gives no available thrust.");
@@ -529,14 +530,14 @@ pub fn thrust_bar(report: &Report) -> Drawing {
 pub fn energy_bar(report: &Report) -> Drawing {
     const ID: &str = "fig-energy";
     const TITLE: &str = "Energy stored and needed";
-    let finding = report.finding("energy-budget");
-    let claimed_min = value(finding, "claimed_flight_time", None);
+    let finding = report.finding(energy_budget::ID);
+    let claimed_min = value(finding, keys::CLAIMED_FLIGHT_TIME, None);
     let rows: Vec<(Tier, f64, Option<f64>)> = Tier::ALL
         .into_iter()
         .filter_map(|t| {
-            let stored = value(finding, "usable_energy", Some(t))?;
+            let stored = value(finding, keys::USABLE_ENERGY, Some(t))?;
             let needed = claimed_min
-                .zip(value(finding, "hover_power", Some(t)))
+                .zip(value(finding, keys::HOVER_POWER, Some(t)))
                 .map(|(min, watts)| watts * min / 60.0);
             Some((t, stored, needed))
         })
@@ -878,7 +879,10 @@ mod tests {
         // horizontal force W tan(theta); at 30 deg, tan = 0.5774 (g tan = 5.66 m/s^2).
         let report = Report::new(
             "t".into(),
-            vec![finding("thrust-margin", vec![fig("weight", None, 10.0)])],
+            vec![finding(
+                "thrust-margin",
+                vec![fig(keys::WEIGHT, None, 10.0)],
+            )],
         );
         let claim = sheet("[claim]\nhover_tilt = \"30 deg\"");
         let f = Forces::of(&report, &claim).unwrap();
@@ -913,9 +917,9 @@ mod tests {
             vec![finding(
                 "thrust-margin",
                 vec![
-                    fig("weight", None, 3.0),
-                    fig("thrust_available", Some(Tier::PhysicalLimit), 8.0),
-                    fig("thrust_available", Some(Tier::Typical), 4.0),
+                    fig(keys::WEIGHT, None, 3.0),
+                    fig(keys::THRUST_AVAILABLE, Some(Tier::PhysicalLimit), 8.0),
+                    fig(keys::THRUST_AVAILABLE, Some(Tier::Typical), 4.0),
                 ],
             )],
         );
@@ -933,10 +937,10 @@ mod tests {
     #[test]
     fn energy_needed_is_hover_power_times_the_claimed_time() {
         // Energy = power x time: 6 W for 15 min is 1.5 Wh.
-        let mut e = vec![fig("claimed_flight_time", None, 15.0)];
+        let mut e = vec![fig(keys::CLAIMED_FLIGHT_TIME, None, 15.0)];
         for t in Tier::ALL {
-            e.push(fig("usable_energy", Some(t), 2.0));
-            e.push(fig("hover_power", Some(t), 6.0));
+            e.push(fig(keys::USABLE_ENERGY, Some(t), 2.0));
+            e.push(fig(keys::HOVER_POWER, Some(t), 6.0));
         }
         let report = Report::new("t".into(), vec![finding("energy-budget", e)]);
         let svg = energy_bar(&report).svg.unwrap();
