@@ -158,13 +158,6 @@ impl<'a, 'p> Table<'a, 'p> {
         let range = format!("a whole number from {lo} to {hi}");
         match self.get(key)? {
             Node::Int(n) if (lo..=hi).contains(n) => u32::try_from(*n).ok(),
-            Node::Int(n) if *n > hi => {
-                errors.push(
-                    self.field(key),
-                    format!("is too large: must be {range}, got {n}"),
-                );
-                None
-            }
             Node::Int(n) => {
                 errors.push(self.field(key), format!("must be {range}, got {n}"));
                 None

@@ -45,7 +45,18 @@ impl Node<'_> {
 /// Parses TOML text into a tree with toml's `DeTable`, which keeps each
 /// value's span, so a syntax error or a number out of range carries line and column.
 pub fn from_toml(text: &str) -> Result<Node<'_>, Error> {
-    let table = DeTable::parse(text).map_err(|e| toml_error(text, e.message(), e.span()))?;
+    let table = DeTable::parse(text).map_err(|e| {
+        // toml says "duplicate key" with the key's span: name the key, as
+        // the JSON reader does.
+        let key = e
+            .span()
+            .and_then(|span| text.get(span))
+            .filter(|_| e.message().trim() == "duplicate key");
+        match key {
+            Some(key) => toml_error(text, &format!("duplicate key `{}`", key.trim()), e.span()),
+            None => toml_error(text, e.message(), e.span()),
+        }
+    })?;
     toml_table(text, table.into_inner())
 }
 
