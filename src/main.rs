@@ -4,6 +4,7 @@
 use std::io::{IsTerminal, Read};
 use std::net::SocketAddr;
 use std::process::ExitCode;
+use std::time::Duration;
 
 use clap::{Parser, Subcommand, ValueEnum};
 
@@ -33,6 +34,19 @@ enum Command {
         /// Address to listen on.
         #[arg(long, default_value = "127.0.0.1:8080")]
         addr: SocketAddr,
+        /// Seconds a request may take, its body included, before it is answered 408.
+        #[arg(long, default_value_t = 10)]
+        request_timeout: u64,
+        /// Seconds a connection may take to send a request head; an idle
+        /// keep-alive connection is closed after them.
+        #[arg(long, default_value_t = 10)]
+        header_timeout: u64,
+        /// Seconds a request body may pause before it is answered 408.
+        #[arg(long, default_value_t = 5)]
+        body_timeout: u64,
+        /// Connections open at once; more wait in the listen queue.
+        #[arg(long, default_value_t = 1024)]
+        max_connections: usize,
     },
     /// Check claim sheets (TOML or JSON; `-` reads standard input).
     Check {
@@ -68,7 +82,22 @@ fn main() -> ExitCode {
         }
     };
     match cli.command {
-        Command::Serve { addr } => serve(addr),
+        Command::Serve {
+            addr,
+            request_timeout,
+            header_timeout,
+            body_timeout,
+            max_connections,
+        } => serve(
+            addr,
+            web::Config {
+                request_timeout: Duration::from_secs(request_timeout.max(1)),
+                header_read_timeout: Duration::from_secs(header_timeout.max(1)),
+                body_timeout: Duration::from_secs(body_timeout.max(1)),
+                max_connections: max_connections.max(1),
+                ..web::Config::default()
+            },
+        ),
         Command::Check {
             files,
             demo,
@@ -79,7 +108,7 @@ fn main() -> ExitCode {
 
 /// Runs the service until Ctrl-C or SIGTERM; logs one line per request
 /// (`RUST_LOG` overrides the `info` level).
-fn serve(addr: SocketAddr) -> ExitCode {
+fn serve(addr: SocketAddr, config: web::Config) -> ExitCode {
     tracing_subscriber::fmt()
         .with_ansi(std::io::stdout().is_terminal() && std::env::var_os("NO_COLOR").is_none())
         .with_env_filter(
@@ -94,7 +123,7 @@ fn serve(addr: SocketAddr) -> ExitCode {
             return ExitCode::FAILURE;
         }
     };
-    match runtime.block_on(web::serve(addr, web::Config::default())) {
+    match runtime.block_on(web::serve(addr, config)) {
         Ok(()) => ExitCode::SUCCESS,
         Err(e) => {
             eprintln!("liftaudit serve: cannot serve on {addr}: {e}");
