@@ -4,6 +4,7 @@
 use std::io::{IsTerminal, Read};
 use std::net::SocketAddr;
 use std::process::ExitCode;
+use std::time::Duration;
 
 use clap::{Parser, Subcommand, ValueEnum};
 
@@ -33,6 +34,19 @@ enum Command {
         /// Address to listen on.
         #[arg(long, default_value = "127.0.0.1:8080")]
         addr: SocketAddr,
+        /// Seconds a request may take, its body included, before it is answered 408.
+        #[arg(long, default_value_t = 10)]
+        request_timeout: u64,
+        /// Seconds a connection may take to send a request head; an idle
+        /// keep-alive connection is closed after them.
+        #[arg(long, default_value_t = 10)]
+        header_timeout: u64,
+        /// Seconds a request body may pause before it is answered 408.
+        #[arg(long, default_value_t = 5)]
+        body_timeout: u64,
+        /// Connections open at once; more wait in the listen queue.
+        #[arg(long, default_value_t = 1024)]
+        max_connections: usize,
     },
     /// Check claim sheets (TOML or JSON; `-` reads standard input).
     Check {
@@ -54,9 +68,36 @@ enum OutputFormat {
 }
 
 fn main() -> ExitCode {
-    let cli = Cli::parse();
+    // A usage error exits 64 (bad input), not clap's 2, which here means
+    // "implausible"; help and the version are not errors.
+    let cli = match Cli::try_parse() {
+        Ok(cli) => cli,
+        Err(e) => {
+            let _ = e.print();
+            return if e.use_stderr() {
+                ExitCode::from(BAD_INPUT)
+            } else {
+                ExitCode::SUCCESS
+            };
+        }
+    };
     match cli.command {
-        Command::Serve { addr } => serve(addr),
+        Command::Serve {
+            addr,
+            request_timeout,
+            header_timeout,
+            body_timeout,
+            max_connections,
+        } => serve(
+            addr,
+            web::Config {
+                request_timeout: Duration::from_secs(request_timeout.max(1)),
+                header_read_timeout: Duration::from_secs(header_timeout.max(1)),
+                body_timeout: Duration::from_secs(body_timeout.max(1)),
+                max_connections: max_connections.max(1),
+                ..web::Config::default()
+            },
+        ),
         Command::Check {
             files,
             demo,
@@ -67,7 +108,7 @@ fn main() -> ExitCode {
 
 /// Runs the service until Ctrl-C or SIGTERM; logs one line per request
 /// (`RUST_LOG` overrides the `info` level).
-fn serve(addr: SocketAddr) -> ExitCode {
+fn serve(addr: SocketAddr, config: web::Config) -> ExitCode {
     tracing_subscriber::fmt()
         .with_ansi(std::io::stdout().is_terminal() && std::env::var_os("NO_COLOR").is_none())
         .with_env_filter(
@@ -82,7 +123,7 @@ fn serve(addr: SocketAddr) -> ExitCode {
             return ExitCode::FAILURE;
         }
     };
-    match runtime.block_on(web::serve(addr, web::Config::default())) {
+    match runtime.block_on(web::serve(addr, config)) {
         Ok(()) => ExitCode::SUCCESS,
         Err(e) => {
             eprintln!("liftaudit serve: cannot serve on {addr}: {e}");
@@ -91,17 +132,37 @@ fn serve(addr: SocketAddr) -> ExitCode {
     }
 }
 
-/// Reads one named input: a file path, or `-` for standard input.
+/// Reads one named input, a file path or `-` for standard input, up to the
+/// service's body limit: a longer input (`/dev/zero`, `yes |`) is refused as
+/// soon as the limit is passed, without reading on.
 fn read_input(name: &str) -> Result<String, String> {
-    if name == "-" {
-        let mut text = String::new();
+    let shown = if name == "-" { "standard input" } else { name };
+    let limit = web::BODY_LIMIT;
+    let mut bytes = Vec::new();
+    let read = if name == "-" {
         std::io::stdin()
-            .read_to_string(&mut text)
-            .map_err(|e| format!("standard input: {e}"))?;
-        Ok(text)
+            .lock()
+            .take(limit as u64 + 1)
+            .read_to_end(&mut bytes)
     } else {
-        std::fs::read_to_string(name).map_err(|e| format!("{name}: {e}"))
+        std::fs::File::open(name).and_then(|f| f.take(limit as u64 + 1).read_to_end(&mut bytes))
+    };
+    read.map_err(|e| format!("{shown}: {e}"))?;
+    if bytes.len() > limit {
+        return Err(format!(
+            "{shown}: longer than {} KiB, the most a sheet may be",
+            limit / 1024
+        ));
     }
+    String::from_utf8(bytes).map_err(|_| format!("{shown}: not UTF-8 text"))
+}
+
+/// What `--format json` prints for a sheet that was not checked.
+#[derive(serde::Serialize)]
+struct Refused {
+    file: String,
+    #[serde(flatten)]
+    errors: web::error::ErrorBody,
 }
 
 fn check(files: &[String], demos: &[String], format: OutputFormat) -> ExitCode {
@@ -130,36 +191,50 @@ fn check(files: &[String], demos: &[String], format: OutputFormat) -> ExitCode {
     }
 
     let color = std::io::stdout().is_terminal() && std::env::var_os("NO_COLOR").is_none();
-    let mut reports: Vec<Report> = Vec::new();
-    let mut bad = false;
+    let several = inputs.len() > 1;
+    // One element per input, in order: a report, or the input's errors.
+    let mut outcomes: Vec<Result<Report, Refused>> = Vec::new();
     for (name, text) in inputs {
+        let refused = |error: web::error::Error| Refused {
+            file: name.clone(),
+            errors: web::error::ErrorBody::of(&error),
+        };
         let text = match text {
             Ok(t) => t,
             Err(e) => {
                 eprintln!("liftaudit check: {e}");
-                bad = true;
+                outcomes.push(Err(refused(web::error::Error::BadRequest(e))));
                 continue;
             }
         };
         match claim::parse_any(&text) {
-            Ok(claim) => reports.push(rules::run_all(&claim)),
+            Ok(claim) => outcomes.push(Ok(rules::run_all(&claim))),
             Err(e) => {
                 eprintln!("{name}: the sheet was not accepted");
                 for line in e.to_string().lines() {
                     eprintln!("  {line}");
                 }
-                bad = true;
+                outcomes.push(Err(refused(web::error::Error::Sheet(e))));
             }
         }
     }
+    let bad = outcomes.iter().any(Result::is_err);
+    let reports: Vec<&Report> = outcomes.iter().filter_map(|o| o.as_ref().ok()).collect();
     match format {
-        OutputFormat::Json if reports.len() == 1 => println!("{}", reports[0].to_json()),
-        OutputFormat::Json => {
-            let all: Vec<serde_json::Value> = reports
+        OutputFormat::Json if several => {
+            let all: Vec<serde_json::Value> = outcomes
                 .iter()
-                .filter_map(|r| serde_json::to_value(r).ok())
+                .filter_map(|o| match o {
+                    Ok(report) => serde_json::to_value(report).ok(),
+                    Err(refused) => serde_json::to_value(refused).ok(),
+                })
                 .collect();
             println!("{}", serde_json::to_string_pretty(&all).unwrap_or_default());
+        }
+        OutputFormat::Json => {
+            for r in &reports {
+                println!("{}", r.to_json());
+            }
         }
         OutputFormat::Text => {
             for (i, r) in reports.iter().enumerate() {

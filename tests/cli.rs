@@ -301,3 +301,79 @@ fn a_gram_thrust_is_read_as_gram_force_and_the_report_says_so() {
     let (_, out, _) = check_stdin(&sheet);
     assert!(out.contains("read as gram-force"), "{out}");
 }
+
+#[test]
+fn a_usage_error_exits_64_and_help_exits_0() {
+    // DESIGN: 64 is bad input; 2 means implausible, so clap's 2 is not used.
+    for args in [
+        &["check", "--format", "yaml", "--demo", "hover-lamp"][..],
+        &["check", "--demo"][..],
+        &["frobnicate"][..],
+        &[][..],
+    ] {
+        let out = liftaudit(args, None);
+        assert_eq!(out.status.code(), Some(64), "{args:?}");
+    }
+    assert_eq!(liftaudit(&["--help"], None).status.code(), Some(0));
+    assert_eq!(liftaudit(&["--version"], None).status.code(), Some(0));
+}
+
+#[test]
+fn an_endless_input_ends_at_the_body_limit_with_exit_64() {
+    let start = std::time::Instant::now();
+    let out = liftaudit(&["check", "/dev/zero"], None);
+    assert_eq!(out.status.code(), Some(64));
+    assert_eq!(
+        String::from_utf8_lossy(&out.stderr).trim(),
+        "liftaudit check: /dev/zero: longer than 1024 KiB, the most a sheet may be"
+    );
+    // Reading 1 MiB and stopping; a bound in seconds with room to spare.
+    assert!(start.elapsed() < std::time::Duration::from_secs(30));
+    // As `yes |` does: more than the limit on standard input; the command
+    // stops reading, so the writer may see a broken pipe.
+    let mut child = Command::new(env!("CARGO_BIN_EXE_liftaudit"))
+        .args(["check", "-"])
+        .stdin(Stdio::piped())
+        .stdout(Stdio::piped())
+        .stderr(Stdio::piped())
+        .spawn()
+        .unwrap();
+    let mut stdin = child.stdin.take().unwrap();
+    let writer = std::thread::spawn(move || {
+        let line = "y\n".repeat(4096);
+        while stdin.write_all(line.as_bytes()).is_ok() {}
+    });
+    let out = child.wait_with_output().unwrap();
+    writer.join().unwrap();
+    let (code, err) = (out.status.code(), String::from_utf8_lossy(&out.stderr));
+    assert_eq!(code, Some(64));
+    assert_eq!(
+        err.trim(),
+        "liftaudit check: standard input: longer than 1024 KiB, the most a sheet may be"
+    );
+}
+
+#[test]
+fn several_inputs_as_json_are_an_array_in_order_with_a_bad_one_as_its_errors() {
+    let dir = std::env::temp_dir().join(format!("liftaudit-cli-{}", std::process::id()));
+    std::fs::create_dir_all(&dir).unwrap();
+    let good = dir.join("good.toml");
+    let bad = dir.join("bad.toml");
+    std::fs::write(&good, GOOD).unwrap();
+    std::fs::write(&bad, "title = \"x\"\n").unwrap();
+    let (good, bad) = (good.to_str().unwrap(), bad.to_str().unwrap());
+    let out = liftaudit(&["check", "--format", "json", good, bad, good], None);
+    assert_eq!(out.status.code(), Some(64));
+    let v: serde_json::Value = serde_json::from_slice(&out.stdout).unwrap();
+    let all = v.as_array().unwrap();
+    assert_eq!(all.len(), 3);
+    assert_eq!(all[0]["schema"], "liftaudit.report/1");
+    assert_eq!(all[1]["file"], bad);
+    assert_eq!(all[1]["errors"][0]["field"], "craft");
+    assert_eq!(all[2]["schema"], "liftaudit.report/1");
+    // One input: the report object itself.
+    let one = liftaudit(&["check", "--format", "json", good], None);
+    let v: serde_json::Value = serde_json::from_slice(&one.stdout).unwrap();
+    assert_eq!(v["schema"], "liftaudit.report/1");
+    std::fs::remove_dir_all(&dir).ok();
+}

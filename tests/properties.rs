@@ -213,3 +213,131 @@ proptest! {
         prop_assert_eq!(from_toml, report_of(&v));
     }
 }
+
+/// Fields that take a quantity, with the unit an extreme value is written in.
+const QUANTITIES: [(&str, &str, &str); 12] = [
+    ("craft", "mass", "g"),
+    ("rotors", "diameter", "mm"),
+    ("rotors", "arm", "mm"),
+    ("rotors", "max_thrust", "g"),
+    ("rotors", "max_power", "W"),
+    ("battery", "capacity", "mAh"),
+    ("battery", "mass", "g"),
+    ("battery", "max_discharge", "C"),
+    ("claim", "flight_time", "min"),
+    ("conditions", "wind", "m/s"),
+    ("sensing", "loop_rate", "Hz"),
+    ("rotors", "height", "mm"),
+];
+
+proptest! {
+    #![proptest_config(ProptestConfig { cases: 512, ..ProptestConfig::default() })]
+
+    /// Issue 16: magnitudes from 1e-300 to 1e300 in any quantity field give
+    /// field errors or a report of finite figures, never a panic (which the
+    /// service would answer 500). `rotors.max_power = "1e-200 W"` was the crash.
+    #[test]
+    fn extreme_magnitudes_give_field_errors_or_finite_reports_never_a_panic(
+        s in sheets(),
+        picks in proptest::collection::vec((0..QUANTITIES.len(), 1.0..10.0f64, -300..=300i32), 1..4),
+    ) {
+        let mut v = s.value();
+        for (field, mantissa, exponent) in picks {
+            let (table, key, unit) = QUANTITIES[field];
+            v[table][key] = json!(format!("{mantissa}e{exponent} {unit}"));
+        }
+        if let Ok(claim) = claim::parse(&v.to_string(), Format::Json) {
+            let report = rules::run_all(&claim);
+            for f in &report.findings {
+                for fig in &f.figures {
+                    prop_assert!(fig.value.is_finite(), "{} {} in {}", f.rule, fig.key, v);
+                }
+            }
+            prop_assert!(serde_json::to_string(&report).is_ok());
+        }
+    }
+}
+
+/// Each demo sheet as a JSON value, to set extreme values in.
+fn demo_values() -> Vec<Value> {
+    liftaudit::claim::demo::DEMOS
+        .iter()
+        .map(|d| {
+            let table: toml::Table = toml::from_str(d.text).expect("a demo is TOML");
+            serde_json::to_value(table).expect("as JSON")
+        })
+        .collect()
+}
+
+proptest! {
+    #![proptest_config(ProptestConfig { cases: 512, ..ProptestConfig::default() })]
+
+    /// The same over the demo sheets, whose every rule runs (the control
+    /// analysis among them): `rotors.max_power = "1e-200 W"` on
+    /// classroom-quad panicked inside the linear algebra (issue 16).
+    #[test]
+    fn extreme_magnitudes_in_a_demo_give_field_errors_or_finite_reports_never_a_panic(
+        demo in 0..liftaudit::claim::demo::DEMOS.len(),
+        picks in proptest::collection::vec((0..QUANTITIES.len(), 1.0..10.0f64, -300..=300i32), 1..4),
+    ) {
+        let mut v = demo_values()[demo].clone();
+        for (field, mantissa, exponent) in picks {
+            let (table, key, unit) = QUANTITIES[field];
+            if !v[table].is_object() {
+                v[table] = json!({});
+            }
+            v[table][key] = json!(format!("{mantissa}e{exponent} {unit}"));
+        }
+        if let Ok(claim) = claim::parse(&v.to_string(), Format::Json) {
+            let report = rules::run_all(&claim);
+            for f in &report.findings {
+                for fig in &f.figures {
+                    prop_assert!(fig.value.is_finite(), "{} {} in {}", f.rule, fig.key, v);
+                }
+            }
+        }
+    }
+}
+
+proptest! {
+    #![proptest_config(ProptestConfig { cases: 256, ..ProptestConfig::default() })]
+
+    /// Issue 16: a number of a million or more is written in scientific
+    /// notation, so no text holds a run of hundreds of digits, however far
+    /// out the sheet's magnitudes are.
+    #[test]
+    fn extreme_magnitudes_never_print_a_long_run_of_digits(
+        s in sheets(),
+        picks in proptest::collection::vec((0..QUANTITIES.len(), 1.0..10.0f64, -300..=300i32), 1..4),
+    ) {
+        let mut v = s.value();
+        for (field, mantissa, exponent) in picks {
+            let (table, key, unit) = QUANTITIES[field];
+            v[table][key] = json!(format!("{mantissa}e{exponent} {unit}"));
+        }
+        let claim = match claim::parse(&v.to_string(), Format::Json) {
+            Ok(claim) => claim,
+            Err(e) => {
+                let words = e.to_string();
+                prop_assert!(longest_digit_run(&words) < 20, "{words}");
+                return Ok(());
+            }
+        };
+        // Only sheets the rules can run on without the control analysis's
+        // crash (issue 16) reach here in a branch without its fix.
+        let report = match std::panic::catch_unwind(|| rules::run_all(&claim)) {
+            Ok(report) => report,
+            Err(_) => return Ok(()),
+        };
+        let text = liftaudit::report::render_text(&report, false);
+        prop_assert!(longest_digit_run(&text) < 20, "{text}");
+    }
+}
+
+/// The longest run of decimal digits in `text`.
+fn longest_digit_run(text: &str) -> usize {
+    text.split(|c: char| !c.is_ascii_digit())
+        .map(str::len)
+        .max()
+        .unwrap_or(0)
+}

@@ -54,7 +54,11 @@ pub fn parse_any(text: &str) -> Result<Claim, Error> {
 
 /// The format a sheet's text looks like.
 pub fn sniff(text: &str) -> Format {
-    if text.trim_start().starts_with('{') {
+    if text
+        .trim_start_matches('\u{feff}')
+        .trim_start()
+        .starts_with('{')
+    {
         Format::Json
     } else {
         Format::Toml

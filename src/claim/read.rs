@@ -26,16 +26,37 @@ const MAX_CELLS: i64 = 24;
 const MAX_PARTS: usize = 500;
 const MAX_TEXT: usize = 500;
 
-/// Collected field errors.
+/// The most field errors a refusal lists; the rest are counted in one
+/// last entry, so that the answer to a sheet of many thousand bad keys stays small.
+pub const MAX_ERRORS: usize = 50;
+
+/// Collected field errors: the first [`MAX_ERRORS`], and how many more.
 #[derive(Default)]
-struct Errors(Vec<FieldError>);
+struct Errors(Vec<FieldError>, usize);
 
 impl Errors {
     fn push(&mut self, field: impl fmt::Display, message: impl Into<String>) {
+        if self.0.len() >= MAX_ERRORS {
+            self.1 += 1;
+            return;
+        }
         self.0.push(FieldError {
             field: field.to_string(),
             message: message.into(),
         });
+    }
+
+    /// The errors listed, with "and N more errors" after the first [`MAX_ERRORS`].
+    fn into_list(self) -> Vec<FieldError> {
+        let Errors(mut list, more) = self;
+        if more > 0 {
+            let s = if more == 1 { "" } else { "s" };
+            list.push(FieldError {
+                field: "(sheet)".to_string(),
+                message: format!("and {more} more error{s}"),
+            });
+        }
+        list
     }
 }
 
@@ -132,19 +153,34 @@ impl<'a, 'p> Table<'a, 'p> {
         }
     }
 
-    /// A whole number in `lo..=hi`.
+    /// A whole number in `lo..=hi`; a number with a zero fraction (`4.0`) is one.
     fn count(&mut self, key: &'static str, lo: i64, hi: i64, errors: &mut Errors) -> Option<u32> {
+        let range = format!("a whole number from {lo} to {hi}");
         match self.get(key)? {
             Node::Int(n) if (lo..=hi).contains(n) => u32::try_from(*n).ok(),
             Node::Int(n) => {
-                errors.push(
-                    self.field(key),
-                    format!("must be a whole number from {lo} to {hi}, got {n}"),
-                );
+                errors.push(self.field(key), format!("must be {range}, got {n}"));
+                None
+            }
+            Node::Float(f) if f.fract() == 0.0 && (lo as f64..=hi as f64).contains(f) => {
+                u32::try_from(*f as i64).ok()
+            }
+            // Beyond the range a float's digits are not the ones written
+            // (1e20 for 99999999999999999999), so none are printed.
+            Node::Float(f) if f.fract() == 0.0 && *f > hi as f64 => {
+                errors.push(self.field(key), format!("is too large: must be {range}"));
+                None
+            }
+            Node::Float(f) if f.fract() == 0.0 && *f < lo as f64 => {
+                errors.push(self.field(key), format!("is too small: must be {range}"));
                 None
             }
             Node::Float(f) => {
-                errors.push(self.field(key), format!("must be a whole number, got {f}"));
+                let shown = crate::report::numbers::Sig3(*f);
+                errors.push(
+                    self.field(key),
+                    format!("must be a whole number, got {shown}, which is not whole"),
+                );
                 None
             }
             other => {
@@ -364,7 +400,7 @@ pub(super) fn claim(tree: &Node) -> Result<Claim, Error> {
             if errors.0.is_empty() {
                 errors.push("(sheet)", "could not be read");
             }
-            Err(Error::Invalid(errors.0))
+            Err(Error::Invalid(errors.into_list()))
         }
     }
 }
@@ -560,6 +596,8 @@ fn read_part(path: Path<'_>, node: &Node, errors: &mut Errors) -> Option<Part> {
 
 /// "160 mm x 80 mm x 22 mm" (or "160 x 80 x 22 mm"), length by width by height.
 fn read_size(text: &str) -> Result<BoxSize, String> {
+    let normal = units::normalize(text);
+    let text = normal.as_str();
     let pieces: Vec<&str> = text.split(['x', 'X', '×', '*']).map(str::trim).collect();
     if pieces.len() != 3 {
         return Err(format!(
@@ -567,10 +605,7 @@ fn read_size(text: &str) -> Result<BoxSize, String> {
         ));
     }
     // A unit written only once, at the end, applies to all three.
-    let tail_unit: String = pieces[2]
-        .trim_start_matches(|c: char| c.is_ascii_digit() || c == '.' || c == '+' || c == '-')
-        .trim()
-        .to_string();
+    let tail_unit: String = pieces[2][units::number_end(pieces[2])..].trim().to_string();
     let mut sides = [0.0; 3];
     for (i, piece) in pieces.iter().enumerate() {
         let bare = piece.parse::<f64>().is_ok();
@@ -1040,7 +1075,7 @@ mod tests {
 
     #[test]
     fn a_known_key_after_many_unknown_ones_is_still_taken() {
-        let junk: Vec<String> = (0..70).map(|i| format!("\"x{i:02}\": 1")).collect();
+        let junk: Vec<String> = (0..40).map(|i| format!("\"x{i:02}\": 1")).collect();
         let text = format!(
             r#"{{"title": "t", "craft": {{{}, "mass": "1 kg"}}}}"#,
             junk.join(", ")
@@ -1053,7 +1088,21 @@ mod tests {
             .filter(|e| e.field.starts_with("craft."))
             .map(|e| e.field.as_str())
             .collect();
-        assert_eq!(craft.len(), 70);
+        assert_eq!(craft.len(), 40);
         assert!(!craft.contains(&"craft.mass"));
+    }
+
+    #[test]
+    fn the_error_list_stops_at_fifty_and_counts_the_rest() {
+        let junk: Vec<String> = (0..110_000).map(|i| format!("\"x{i}\": 1")).collect();
+        let text = format!(r#"{{"title": "t", {}}}"#, junk.join(", "));
+        let Err(Error::Invalid(errors)) = parse(&text, Format::Json) else {
+            panic!("the sheet should be refused");
+        };
+        // 110,000 unknown keys and the three missing required tables: 50 listed.
+        assert_eq!(errors.len(), MAX_ERRORS + 1);
+        let last = errors.last().unwrap();
+        assert_eq!(last.field, "(sheet)");
+        assert_eq!(last.message, "and 109952 more errors");
     }
 }

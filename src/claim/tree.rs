@@ -45,7 +45,18 @@ impl Node<'_> {
 /// Parses TOML text into a tree with toml's `DeTable`, which keeps each
 /// value's span, so a syntax error or a number out of range carries line and column.
 pub fn from_toml(text: &str) -> Result<Node<'_>, Error> {
-    let table = DeTable::parse(text).map_err(|e| toml_error(text, e.message(), e.span()))?;
+    let table = DeTable::parse(text).map_err(|e| {
+        // toml says "duplicate key" with the key's span: name the key, as
+        // the JSON reader does.
+        let key = e
+            .span()
+            .and_then(|span| text.get(span))
+            .filter(|_| e.message().trim() == "duplicate key");
+        match key {
+            Some(key) => toml_error(text, &format!("duplicate key `{}`", key.trim()), e.span()),
+            None => toml_error(text, e.message(), e.span()),
+        }
+    })?;
     toml_table(text, table.into_inner())
 }
 
@@ -63,7 +74,9 @@ fn toml_error(text: &str, message: &str, span: Option<Range<usize>>) -> Error {
 }
 
 /// Parses JSON text into a tree with serde_json; a syntax error carries line and column.
+/// A UTF-8 byte-order mark before the text is skipped, as TOML's reader does.
 pub fn from_json(text: &str) -> Result<Node<'_>, Error> {
+    let text = text.strip_prefix('\u{feff}').unwrap_or(text);
     match serde_json::from_str::<Node>(text) {
         Ok(node @ Node::Table(_)) => Ok(node),
         Ok(other) => Err(Error::Syntax {
@@ -192,7 +205,21 @@ fn toml_value<'t>(text: &str, value: Spanned<DeValue<'t>>) -> Result<Node<'t>, E
         DeValue::String(s) => Node::Str(s),
         DeValue::Integer(i) => match i64::from_str_radix(i.as_str(), i.radix()) {
             Ok(n) => Node::Int(n),
-            Err(e) => return Err(toml_error(text, &e.to_string(), Some(span))),
+            // Named as written, not rounded: TOML integers are 64-bit.
+            Err(e) => {
+                let size = match e.kind() {
+                    std::num::IntErrorKind::NegOverflow => "too small",
+                    std::num::IntErrorKind::PosOverflow => "too large",
+                    _ => "not a whole number",
+                };
+                let message = format!(
+                    "the whole number {} is {size} (TOML whole numbers run from {} to {})",
+                    i.as_str(),
+                    i64::MIN,
+                    i64::MAX
+                );
+                return Err(toml_error(text, &message, Some(span)));
+            }
         },
         // A literal too large for f64 is refused; only `inf` itself is infinite.
         DeValue::Float(f) => match f.as_str().parse::<f64>() {

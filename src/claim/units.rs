@@ -60,74 +60,248 @@ impl Dim {
     }
 }
 
-/// A unit symbol: its dimension, the factor to the SI base unit and, for
-/// temperatures, the offset added after scaling (kelvin = factor x v + offset).
+/// A unit: its dimension, the factor to the SI base unit and, for
+/// temperatures, the offset added after scaling (kelvin = factor x v + offset),
+/// and its name for messages.
+#[derive(Debug, Clone, Copy, PartialEq)]
 struct Unit {
     dim: Dim,
     factor: f64,
     offset: f64,
+    name: &'static str,
 }
 
 /// Standard gravity, by definition (3rd CGPM, 1901; ISO 80000-3): 9.80665 m/s^2.
 pub const STANDARD_GRAVITY: f64 = 9.806_65;
 
-fn unit(symbol: &str) -> Option<Unit> {
-    let u = |dim, factor| {
-        Some(Unit {
-            dim,
-            factor,
-            offset: 0.0,
-        })
-    };
-    match symbol {
-        "mg" => u(Dim::Mass, 1e-6),
-        "g" | "gram" | "grams" => u(Dim::Mass, 1e-3),
-        "kg" => u(Dim::Mass, 1.0),
-        "oz" => u(Dim::Mass, 0.028_349_523_125),
-        "lb" => u(Dim::Mass, 0.453_592_37),
-        "mm" => u(Dim::Length, 1e-3),
-        "cm" => u(Dim::Length, 1e-2),
-        "m" => u(Dim::Length, 1.0),
-        "km" => u(Dim::Length, 1e3),
-        "in" | "inch" | "inches" | "\"" => u(Dim::Length, 0.0254),
-        "ft" => u(Dim::Length, 0.3048),
-        "V" | "v" => u(Dim::Voltage, 1.0),
-        "mV" => u(Dim::Voltage, 1e-3),
-        "mAh" | "mah" | "mA h" | "mA·h" => u(Dim::Charge, 3.6),
-        "Ah" | "ah" | "A h" | "A·h" => u(Dim::Charge, 3600.0),
-        "W" | "w" => u(Dim::Power, 1.0),
-        "mW" => u(Dim::Power, 1e-3),
-        "kW" => u(Dim::Power, 1e3),
-        "ms" => u(Dim::Time, 1e-3),
-        "s" | "sec" => u(Dim::Time, 1.0),
-        "min" => u(Dim::Time, 60.0),
-        "h" | "hr" => u(Dim::Time, 3600.0),
-        "deg" | "°" | "degree" | "degrees" => u(Dim::Angle, std::f64::consts::PI / 180.0),
-        "rad" => u(Dim::Angle, 1.0),
-        "degC" | "°C" | "C°" => Some(Unit {
-            dim: Dim::Temperature,
-            factor: 1.0,
-            offset: 273.15,
-        }),
-        "degF" | "°F" => Some(Unit {
-            dim: Dim::Temperature,
-            factor: 5.0 / 9.0,
-            offset: 273.15 - 32.0 * 5.0 / 9.0,
-        }),
-        "K" => u(Dim::Temperature, 1.0),
-        "m/s" => u(Dim::Speed, 1.0),
-        "km/h" | "kph" => u(Dim::Speed, 1.0 / 3.6),
-        "mph" => u(Dim::Speed, 0.447_04),
-        "kn" | "kt" => u(Dim::Speed, 1852.0 / 3600.0),
-        "Hz" | "hz" => u(Dim::Frequency, 1.0),
-        "kHz" => u(Dim::Frequency, 1e3),
-        "C" => u(Dim::CRate, 1.0),
-        "N" => u(Dim::Force, 1.0),
-        "mN" => u(Dim::Force, 1e-3),
-        "kgf" => u(Dim::Force, STANDARD_GRAVITY),
-        "gf" => u(Dim::Force, STANDARD_GRAVITY * 1e-3),
-        _ => None,
+const fn unit(dim: Dim, factor: f64, name: &'static str) -> Unit {
+    Unit {
+        dim,
+        factor,
+        offset: 0.0,
+        name,
     }
+}
+
+const DEGREE: f64 = std::f64::consts::PI / 180.0;
+/// The international pound, 0.45359237 kg exactly (1959 agreement).
+const POUND: f64 = 0.453_592_37;
+/// The avoirdupois ounce, a sixteenth of the pound.
+const OUNCE: f64 = POUND / 16.0;
+const CELSIUS: Unit = Unit {
+    dim: Dim::Temperature,
+    factor: 1.0,
+    offset: 273.15,
+    name: "degree Celsius",
+};
+const FAHRENHEIT: Unit = Unit {
+    dim: Dim::Temperature,
+    factor: 5.0 / 9.0,
+    offset: 273.15 - 32.0 * 5.0 / 9.0,
+    name: "degree Fahrenheit",
+};
+
+/// Every spelling read, each with its unit. A spelling is matched as
+/// written first; failing that, without regard to case when every spelling
+/// that differs from it by case alone is the same unit (so `KG` is kg and
+/// `MPH` mph, but `mw` is refused, being mW or MW).
+const UNITS: &[(&[&str], Unit)] = &[
+    (
+        &["mg", "milligram", "milligrams"],
+        unit(Dim::Mass, 1e-6, "milligram"),
+    ),
+    (&["g", "gram", "grams"], unit(Dim::Mass, 1e-3, "gram")),
+    (
+        &["kg", "kilogram", "kilograms", "kilo", "kilos"],
+        unit(Dim::Mass, 1.0, "kilogram"),
+    ),
+    (&["oz", "ounce", "ounces"], unit(Dim::Mass, OUNCE, "ounce")),
+    (
+        &["lb", "lbs", "pound", "pounds"],
+        unit(Dim::Mass, POUND, "pound"),
+    ),
+    (
+        &[
+            "mm",
+            "millimetre",
+            "millimetres",
+            "millimeter",
+            "millimeters",
+        ],
+        unit(Dim::Length, 1e-3, "millimetre"),
+    ),
+    (
+        &[
+            "cm",
+            "centimetre",
+            "centimetres",
+            "centimeter",
+            "centimeters",
+        ],
+        unit(Dim::Length, 1e-2, "centimetre"),
+    ),
+    (
+        &["m", "metre", "metres", "meter", "meters"],
+        unit(Dim::Length, 1.0, "metre"),
+    ),
+    (
+        &["km", "kilometre", "kilometres", "kilometer", "kilometers"],
+        unit(Dim::Length, 1e3, "kilometre"),
+    ),
+    (
+        &["in", "inch", "inches", "\""],
+        unit(Dim::Length, 0.0254, "inch"),
+    ),
+    (&["ft", "foot", "feet"], unit(Dim::Length, 0.3048, "foot")),
+    (&["V", "volt", "volts"], unit(Dim::Voltage, 1.0, "volt")),
+    (
+        &["mV", "millivolt", "millivolts"],
+        unit(Dim::Voltage, 1e-3, "millivolt"),
+    ),
+    (
+        &["MV", "megavolt", "megavolts"],
+        unit(Dim::Voltage, 1e6, "megavolt"),
+    ),
+    (
+        &["mAh", "mA h", "mA·h"],
+        unit(Dim::Charge, 3.6, "milliampere hour"),
+    ),
+    (
+        &["Ah", "A h", "A·h"],
+        unit(Dim::Charge, 3600.0, "ampere hour"),
+    ),
+    (&["W", "watt", "watts"], unit(Dim::Power, 1.0, "watt")),
+    (
+        &["mW", "milliwatt", "milliwatts"],
+        unit(Dim::Power, 1e-3, "milliwatt"),
+    ),
+    (
+        &["kW", "kilowatt", "kilowatts"],
+        unit(Dim::Power, 1e3, "kilowatt"),
+    ),
+    (
+        &["MW", "megawatt", "megawatts"],
+        unit(Dim::Power, 1e6, "megawatt"),
+    ),
+    (
+        &["ms", "millisecond", "milliseconds"],
+        unit(Dim::Time, 1e-3, "millisecond"),
+    ),
+    (
+        &["s", "sec", "secs", "second", "seconds"],
+        unit(Dim::Time, 1.0, "second"),
+    ),
+    (
+        &["min", "mins", "minute", "minutes"],
+        unit(Dim::Time, 60.0, "minute"),
+    ),
+    (
+        &["h", "hr", "hrs", "hour", "hours"],
+        unit(Dim::Time, 3600.0, "hour"),
+    ),
+    (
+        &["deg", "°", "degree", "degrees"],
+        unit(Dim::Angle, DEGREE, "degree"),
+    ),
+    (
+        &["rad", "radian", "radians"],
+        unit(Dim::Angle, 1.0, "radian"),
+    ),
+    (&["degC", "°C", "C°"], CELSIUS),
+    (&["degF", "°F"], FAHRENHEIT),
+    (&["K", "kelvin"], unit(Dim::Temperature, 1.0, "kelvin")),
+    (&["m/s", "m/sec"], unit(Dim::Speed, 1.0, "metre per second")),
+    (
+        &["km/h", "kph", "kmh", "km/hr"],
+        unit(Dim::Speed, 1.0 / 3.6, "kilometre per hour"),
+    ),
+    (&["mph"], unit(Dim::Speed, 0.447_04, "mile per hour")),
+    (
+        &["kn", "kt", "kts", "knot", "knots"],
+        unit(Dim::Speed, 1852.0 / 3600.0, "knot"),
+    ),
+    (&["Hz", "hertz"], unit(Dim::Frequency, 1.0, "hertz")),
+    (
+        &["kHz", "kilohertz"],
+        unit(Dim::Frequency, 1e3, "kilohertz"),
+    ),
+    (
+        &["MHz", "megahertz"],
+        unit(Dim::Frequency, 1e6, "megahertz"),
+    ),
+    (&["C"], unit(Dim::CRate, 1.0, "C rate")),
+    (&["N", "newton", "newtons"], unit(Dim::Force, 1.0, "newton")),
+    (
+        &["mN", "millinewton", "millinewtons"],
+        unit(Dim::Force, 1e-3, "millinewton"),
+    ),
+    (
+        &["kgf"],
+        unit(Dim::Force, STANDARD_GRAVITY, "kilogram-force"),
+    ),
+    (
+        &["gf"],
+        unit(Dim::Force, STANDARD_GRAVITY * 1e-3, "gram-force"),
+    ),
+    (
+        &["lbf"],
+        unit(Dim::Force, POUND * STANDARD_GRAVITY, "pound-force"),
+    ),
+    (
+        &["ozf"],
+        unit(Dim::Force, OUNCE * STANDARD_GRAVITY, "ounce-force"),
+    ),
+];
+
+/// What a unit spelling reads as.
+enum Lookup {
+    Found(Unit),
+    /// Spellings that differ from it by case alone name different units.
+    Ambiguous(Vec<(&'static str, &'static str)>),
+    Unknown,
+}
+
+fn lookup(symbol: &str) -> Lookup {
+    let spellings = || {
+        UNITS
+            .iter()
+            .flat_map(|(names, unit)| names.iter().map(move |name| (*name, unit)))
+    };
+    if let Some((_, unit)) = spellings().find(|(name, _)| *name == symbol) {
+        return Lookup::Found(*unit);
+    }
+    let by_case: Vec<(&'static str, &Unit)> = spellings()
+        .filter(|(name, _)| name.to_lowercase() == symbol.to_lowercase())
+        .collect();
+    match by_case.split_first() {
+        None => Lookup::Unknown,
+        Some(((_, first), rest)) if rest.iter().all(|(_, u)| u == first) => Lookup::Found(**first),
+        Some(_) => Lookup::Ambiguous(by_case.iter().map(|(n, u)| (*n, u.name)).collect()),
+    }
+}
+
+/// The unit a spelling stands for, trying it also without a hyphen before
+/// it ("5-inch") and a full stop after it ("5 in.").
+fn unit_of(symbol: &str) -> Lookup {
+    let mut found = lookup(symbol);
+    if matches!(found, Lookup::Unknown) {
+        let bare = symbol.strip_prefix('-').unwrap_or(symbol);
+        let bare = bare.strip_suffix('.').unwrap_or(bare).trim();
+        if bare != symbol && !bare.is_empty() {
+            found = lookup(bare);
+        }
+    }
+    found
+}
+
+/// The text as a quantity is read: after Unicode compatibility
+/// normalisation (NFKC, Unicode Standard Annex 15), so fullwidth digits and
+/// letters are ASCII ones and `℃` is `°C`, and with the minus sign U+2212 as
+/// a hyphen-minus.
+pub fn normalize(text: &str) -> String {
+    icu_normalizer::ComposingNormalizerBorrowed::new_nfkc()
+        .normalize(text)
+        .replace('\u{2212}', "-")
 }
 
 /// A quantity read from a string, in SI units (kelvin for temperatures,
@@ -143,9 +317,16 @@ pub struct Reading {
 /// Reads `text` as a quantity of dimension `expected`; `Err` holds the reason
 /// (without the field path, which the caller adds).
 pub fn read(text: &str, expected: Dim) -> Result<Reading, String> {
-    let text = text.trim();
+    let normal = normalize(text);
+    let text = normal.trim();
     let split = number_end(text);
     let (num, sym) = text.split_at(split);
+    if sym.starts_with(',') && sym[1..].starts_with(|c: char| c.is_ascii_digit()) {
+        return Err(format!(
+            "'{text}' has a comma in its number; use a decimal point (0.3, not 0,3) and no \
+             thousands separator"
+        ));
+    }
     let sym = sym.trim();
     if num.is_empty() {
         return Err(format!(
@@ -168,12 +349,31 @@ pub fn read(text: &str, expected: Dim) -> Result<Reading, String> {
             expected.example()
         ));
     }
-    let Some(unit) = unit(sym) else {
+    if expected == Dim::Temperature && sym.eq_ignore_ascii_case("c") {
         return Err(format!(
-            "unknown unit '{sym}' in '{text}'; expected {} such as {}",
-            expected.noun(),
-            expected.example()
+            "'{text}' could be a temperature ({num} degC) or a discharge rate ({num} C); \
+             write a temperature as '{num} degC'"
         ));
+    }
+    let unit = match unit_of(sym) {
+        Lookup::Found(unit) => unit,
+        Lookup::Ambiguous(readings) => {
+            let readings: Vec<String> = readings
+                .iter()
+                .map(|(spelling, name)| format!("{spelling} ({name})"))
+                .collect();
+            return Err(format!(
+                "the unit '{sym}' in '{text}' could be {}; write it in the case of the unit meant",
+                readings.join(" or ")
+            ));
+        }
+        Lookup::Unknown => {
+            return Err(format!(
+                "unknown unit '{sym}' in '{text}'; expected {} such as {}",
+                expected.noun(),
+                expected.example()
+            ))
+        }
     };
     let mass_as_force = expected == Dim::Force && unit.dim == Dim::Mass;
     if unit.dim != expected && !mass_as_force {
@@ -189,10 +389,18 @@ pub fn read(text: &str, expected: Dim) -> Result<Reading, String> {
     Ok(Reading { si, dim: unit.dim })
 }
 
+/// Every spelling of a unit the sheets take, with its unit's name and
+/// dimension, for the documentation.
+pub fn spellings() -> impl Iterator<Item = (Dim, &'static str, &'static [&'static str])> {
+    UNITS
+        .iter()
+        .map(|(names, unit)| (unit.dim, unit.name, *names))
+}
+
 /// Byte index where the leading decimal number of `text` ends: a sign, digits
 /// and points, then an exponent only when digits follow it, so "5 e" stays a
 /// unit error. `str::parse::<f64>` reads the number; this only finds its end.
-fn number_end(text: &str) -> usize {
+pub fn number_end(text: &str) -> usize {
     let digits = |c: char| c.is_ascii_digit();
     let unsigned = text.strip_prefix(['+', '-']).unwrap_or(text);
     let after_mantissa = unsigned.trim_start_matches(|c: char| digits(c) || c == '.');

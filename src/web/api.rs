@@ -4,6 +4,7 @@
 //! contract; `GET /api/v1/catalog` with the built-in data the rules use.
 
 use axum::body::Bytes;
+use axum::extract::rejection::FormRejection;
 use axum::extract::{FromRequest, Path, Request, State};
 use axum::http::{header, HeaderValue};
 use axum::response::{IntoResponse, Response};
@@ -107,7 +108,7 @@ pub async fn check(request: Request) -> Result<Response, ApiError> {
     let content_type = request.headers().get(header::CONTENT_TYPE).cloned();
     let bytes = Bytes::from_request(request, &())
         .await
-        .map_err(|e| Error::from_status(e.status(), e.body_text()))?;
+        .map_err(|e| Error::from_body_failure(e.status(), e.body_text(), &e))?;
     let text = body_text(&bytes)?;
     let format = format_of(content_type.as_ref(), text)?;
     let report = report_of(text, format)?;
@@ -198,7 +199,7 @@ pub async fn healthz(State(state): State<SharedState>) -> Json<Health> {
 pub async fn demo_report(
     State(state): State<SharedState>,
     Path(name): Path<String>,
-) -> Result<Response, ApiError> {
+) -> Result<Response, Error> {
     let d = state.demo(&name).ok_or(Error::NotFound)?;
     let file = format!("{}-report.json", d.demo.name);
     Ok(json_response(d.report.to_json(), Some(&file)))
@@ -208,7 +209,7 @@ pub async fn demo_report(
 pub async fn demo_sheet(
     State(state): State<SharedState>,
     Path(name): Path<String>,
-) -> Result<Response, ApiError> {
+) -> Result<Response, Error> {
     let d = state.demo(&name).ok_or(Error::NotFound)?;
     Ok(toml_file(
         d.demo.text.to_string(),
@@ -234,6 +235,11 @@ pub async fn sheet_template() -> Response {
     toml_file(SHEET_TEMPLATE.to_string(), "claim-sheet.toml")
 }
 
+/// A download's form that could not be read, as the error it stands for.
+fn form_failure(e: FormRejection) -> Error {
+    Error::from_body_failure(e.status(), e.body_text(), &e)
+}
+
 /// The form the verdict page posts to get its downloads.
 #[derive(Deserialize)]
 pub struct SheetForm {
@@ -241,7 +247,10 @@ pub struct SheetForm {
 }
 
 /// `POST /download/report.json`: the report of a posted sheet, as a file.
-pub async fn download_report(Form(form): Form<SheetForm>) -> Result<Response, ApiError> {
+pub async fn download_report(
+    form: Result<Form<SheetForm>, FormRejection>,
+) -> Result<Response, ApiError> {
+    let Form(form) = form.map_err(form_failure)?;
     let report = report_of(&form.sheet, claim::sniff(&form.sheet))?;
     Ok(json_response(
         report.to_json(),
@@ -250,7 +259,10 @@ pub async fn download_report(Form(form): Form<SheetForm>) -> Result<Response, Ap
 }
 
 /// `POST /download/sheet.toml`: the posted sheet back, as a file.
-pub async fn download_sheet(Form(form): Form<SheetForm>) -> Result<Response, ApiError> {
+pub async fn download_sheet(
+    form: Result<Form<SheetForm>, FormRejection>,
+) -> Result<Response, ApiError> {
+    let Form(form) = form.map_err(form_failure)?;
     if form.sheet.trim().is_empty() {
         return Err(Error::BadRequest("the sheet is empty".into()).into());
     }

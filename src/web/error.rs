@@ -36,6 +36,13 @@ pub enum Error {
     NotFound,
     /// A method the address does not take.
     MethodNotAllowed,
+    /// A request not received within the time the service waits (408).
+    Timeout,
+    /// The client's address has this many bodies in progress already (429).
+    TooManyBodies(usize),
+    /// A refusal made by a layer of a library, restated with its status and
+    /// its words (such as the router's answer to a path that is not UTF-8).
+    Refused(StatusCode, String),
     /// Our fault: logged, never shown.
     Internal(String),
 }
@@ -55,6 +62,33 @@ impl Error {
         }
     }
 
+    /// The error a failed read of the body stands for: [`Error::Timeout`]
+    /// when the body timeout cut it off (found among the `cause`'s sources),
+    /// else as [`Error::from_status`].
+    pub fn from_body_failure(
+        status: StatusCode,
+        message: String,
+        cause: &(dyn std::error::Error + 'static),
+    ) -> Error {
+        let mut source = Some(cause);
+        while let Some(e) = source {
+            if e.is::<tower_http::timeout::TimeoutError>() {
+                return Error::Timeout;
+            }
+            source = e.source();
+        }
+        Error::from_status(status, message)
+    }
+
+    /// This error answered as JSON (`json`) or as the error page.
+    pub fn answer(self, json: bool) -> Response {
+        if json {
+            ApiError(self).into_response()
+        } else {
+            self.into_response()
+        }
+    }
+
     pub fn status(&self) -> StatusCode {
         match self {
             Error::Sheet(claim::Error::Syntax { .. }) | Error::BadRequest(_) => {
@@ -65,6 +99,9 @@ impl Error {
             Error::TooLarge => StatusCode::PAYLOAD_TOO_LARGE,
             Error::NotFound => StatusCode::NOT_FOUND,
             Error::MethodNotAllowed => StatusCode::METHOD_NOT_ALLOWED,
+            Error::Timeout => StatusCode::REQUEST_TIMEOUT,
+            Error::TooManyBodies(_) => StatusCode::TOO_MANY_REQUESTS,
+            Error::Refused(status, _) => *status,
             Error::Internal(_) => StatusCode::INTERNAL_SERVER_ERROR,
         }
     }
@@ -80,7 +117,9 @@ impl Error {
     pub fn public_message(&self) -> String {
         match self {
             Error::Sheet(e) => e.to_string(),
-            Error::BadRequest(m) | Error::UnsupportedMediaType(m) => m.clone(),
+            Error::BadRequest(m) | Error::UnsupportedMediaType(m) | Error::Refused(_, m) => {
+                m.clone()
+            }
             Error::TooLarge => format!(
                 "The request is larger than {} KiB, the most this service reads.",
                 super::BODY_LIMIT / 1024
@@ -90,6 +129,13 @@ impl Error {
                 "This address does not take that method; the Allow header lists the ones it does."
                     .to_string()
             }
+            Error::Timeout => "The request did not arrive in time: its body came too slowly or \
+                 stopped. Please send it again."
+                .to_string(),
+            Error::TooManyBodies(n) => format!(
+                "This address already has {n} requests with a body in progress; \
+                 wait for one to finish, then send this one again."
+            ),
             Error::Internal(_) => {
                 "Something went wrong on our side. The error has been logged; please try again."
                     .to_string()
@@ -208,12 +254,18 @@ pub fn answers_json(path: &str) -> bool {
     path.starts_with("/api/") || path.starts_with("/download/")
 }
 
-/// Two refusals are made outside our handlers, with bodies of their own:
+/// The most of a library's plain-text refusal that is read to restate it.
+const REFUSAL_TEXT_LIMIT: usize = 4096;
+
+/// Some refusals are made outside our handlers, with bodies of their own:
 /// `RequestBodyLimitLayer` answers a body whose declared length is over the
-/// limit with plain text, and the router answers a method a route does not
-/// take (405) with nothing. This gives them the body of every other error:
-/// the JSON errors body under `/api/` and for the downloads (as the OpenAPI
-/// document says), the error page elsewhere. The 405 keeps its `Allow`.
+/// limit with plain text, the router answers a method a route does not take
+/// (405) with nothing and a path it cannot read (400) with plain text, the
+/// timeout answers 408 with nothing and the panic guard 500 with plain text.
+/// This gives every such answer (any status from 400 up, in plain text or
+/// without a body type) the body of every other error: the JSON errors body
+/// under `/api/` and for the downloads (as the OpenAPI document says), the
+/// error page elsewhere. A 405 keeps its `Allow`.
 pub async fn restate_bare_refusals(request: Request, next: Next) -> Response {
     let json = answers_json(request.uri().path());
     let response = next.run(request).await;
@@ -222,20 +274,65 @@ pub async fn restate_bare_refusals(request: Request, next: Next) -> Response {
         .headers()
         .get(header::CONTENT_TYPE)
         .is_none_or(|v| v.as_bytes().starts_with(b"text/plain"));
+    if status.as_u16() < 400 || !plain_text {
+        return response;
+    }
+    let allow = response.headers().get(header::ALLOW).cloned();
     let error = match status {
-        StatusCode::PAYLOAD_TOO_LARGE if plain_text => Error::TooLarge,
-        StatusCode::METHOD_NOT_ALLOWED if plain_text => Error::MethodNotAllowed,
-        _ => return response,
+        StatusCode::PAYLOAD_TOO_LARGE => Error::TooLarge,
+        StatusCode::METHOD_NOT_ALLOWED => Error::MethodNotAllowed,
+        StatusCode::REQUEST_TIMEOUT => Error::Timeout,
+        StatusCode::NOT_FOUND => Error::NotFound,
+        // Already logged with its cause by `panic_response`.
+        StatusCode::INTERNAL_SERVER_ERROR => Error::Internal("a handler panicked".into()),
+        _ => {
+            let text = axum::body::to_bytes(response.into_body(), REFUSAL_TEXT_LIMIT)
+                .await
+                .map(|b| String::from_utf8_lossy(&b).trim().to_string())
+                .unwrap_or_default();
+            let text = if text.is_empty() {
+                status
+                    .canonical_reason()
+                    .unwrap_or("The request was refused")
+                    .to_string()
+            } else {
+                text
+            };
+            Error::Refused(status, text)
+        }
     };
-    let mut restated = if json {
-        ApiError(error).into_response()
-    } else {
-        error.into_response()
-    };
-    if let Some(allow) = response.headers().get(header::ALLOW) {
-        restated.headers_mut().insert(header::ALLOW, allow.clone());
+    let mut restated = error.answer(json);
+    if let Some(allow) = allow {
+        restated.headers_mut().insert(header::ALLOW, allow);
     }
     restated
+}
+
+/// Refuses a request body in a content coding (RFC 9110 section 8.4), such
+/// as gzip: the service reads sheets as they are. 415 names the coding and
+/// `Accept-Encoding: identity` says what is read (RFC 9110 section 12.5.3).
+pub async fn refuse_content_codings(request: Request, next: Next) -> Response {
+    let coding = request.headers().get(header::CONTENT_ENCODING).map(|v| {
+        String::from_utf8_lossy(v.as_bytes())
+            .trim()
+            .to_ascii_lowercase()
+    });
+    match coding {
+        Some(coding) if !coding.is_empty() && coding != "identity" => {
+            let json = answers_json(request.uri().path());
+            let mut response = Error::UnsupportedMediaType(format!(
+                "the body is sent in the content coding '{coding}', which this service does not \
+                 read; send it uncompressed, without a Content-Encoding header"
+            ))
+            .answer(json);
+            response.headers_mut().insert(
+                header::ACCEPT_ENCODING,
+                header::HeaderValue::from_static("identity"),
+            );
+            response
+        }
+        _ => next.run(request).await,
+    }
 }
 
 /// The answer to a handler that panicked: logged, and a plain 500 that says

@@ -17,23 +17,31 @@ pub mod openapi;
 mod pages;
 pub mod view;
 
-use std::net::SocketAddr;
-use std::sync::Arc;
+use std::collections::HashMap;
+use std::future::Future;
+use std::net::{IpAddr, SocketAddr};
+use std::sync::{Arc, Mutex};
 use std::time::{Duration, Instant};
 
 use axum::body::Bytes;
-use axum::extract::{DefaultBodyLimit, Request};
+use axum::extract::{ConnectInfo, DefaultBodyLimit, Request, State};
 use axum::http::{header, HeaderName, HeaderValue, StatusCode};
 use axum::middleware::Next;
 use axum::response::Response;
 use axum::routing::{get, post};
 use axum::Router;
+use hyper::body::Incoming;
+use hyper::server::conn::http1;
+use hyper_util::rt::{TokioIo, TokioTimer};
+use hyper_util::server::graceful::GracefulShutdown;
+use hyper_util::service::TowerToHyperService;
+use tokio::sync::Semaphore;
 use tower::limit::GlobalConcurrencyLimitLayer;
-use tower::ServiceBuilder;
+use tower::{ServiceBuilder, ServiceExt};
 use tower_http::catch_panic::CatchPanicLayer;
 use tower_http::limit::RequestBodyLimitLayer;
 use tower_http::set_header::SetResponseHeaderLayer;
-use tower_http::timeout::TimeoutLayer;
+use tower_http::timeout::{RequestBodyTimeoutLayer, TimeoutLayer};
 
 use crate::claim::{self, demo, Claim};
 use crate::report::Report;
@@ -51,17 +59,32 @@ pub const CSP: &str = "default-src 'none'; script-src 'self'; style-src 'self'; 
 /// Tunables of the service; [`Config::default`] is what `liftaudit serve` uses.
 #[derive(Debug, Clone)]
 pub struct Config {
-    /// Longest a request may take before it is answered 408.
+    /// Longest a request may take, its body included, before it is answered 408.
     pub request_timeout: Duration,
-    /// Requests handled at once; more wait their turn.
+    /// Longest a connection may take to send a whole request head, counted
+    /// from when it opens or its last answer went out: an idle keep-alive
+    /// connection is closed after it.
+    pub header_read_timeout: Duration,
+    /// Longest wait between two pieces of a request body before it is answered 408.
+    pub body_timeout: Duration,
+    /// Requests handled at once (`/healthz` and `/static/` aside); more wait their turn.
     pub max_concurrent: usize,
+    /// Connections open at once; more wait in the listen queue.
+    pub max_connections: usize,
+    /// Requests with a body that one client address may have in progress at
+    /// once; more are answered 429.
+    pub max_bodies_per_client: usize,
 }
 
 impl Default for Config {
     fn default() -> Config {
         Config {
             request_timeout: Duration::from_secs(10),
+            header_read_timeout: Duration::from_secs(10),
+            body_timeout: Duration::from_secs(5),
             max_concurrent: 64,
+            max_connections: 1024,
+            max_bodies_per_client: 8,
         }
     }
 }
@@ -139,7 +162,10 @@ pub fn app(state: AppState) -> Router {
     let config = state.config.clone();
     let state: SharedState = Arc::new(state);
 
-    let routes = Router::new()
+    // Every route that does work waits for one of `max_concurrent` turns;
+    // liveness and the fixed files do not, so that a flood of slow uploads
+    // cannot stall them.
+    let limited = Router::new()
         .route("/", get(pages::index))
         .route("/check", post(pages::check))
         .route("/demo/{name}", get(pages::demo))
@@ -152,8 +178,13 @@ pub fn app(state: AppState) -> Router {
         .route("/api/v1/check", post(api::check))
         .route("/api/v1/catalog", get(api::catalog))
         .route("/api/v1/openapi.json", get(openapi::openapi_json))
+        .layer(GlobalConcurrencyLimitLayer::new(
+            config.max_concurrent.max(1),
+        ));
+    let routes = Router::new()
         .route("/healthz", get(api::healthz))
         .route("/static/{file}", get(assets::serve))
+        .merge(limited)
         .fallback(pages::not_found)
         .with_state(state);
 
@@ -179,20 +210,112 @@ pub fn app(state: AppState) -> Router {
             HeaderValue::from_static("camera=(), microphone=(), geolocation=()"),
         ));
 
+    let bodies = BodiesInProgress::new(config.max_bodies_per_client);
     routes.layer(
         ServiceBuilder::new()
             .layer(axum::middleware::from_fn(access_log))
             .layer(headers)
             .layer(axum::middleware::from_fn(error::restate_bare_refusals))
+            .layer(axum::middleware::from_fn(error::refuse_content_codings))
+            .layer(axum::middleware::from_fn_with_state(
+                bodies,
+                limit_bodies_per_client,
+            ))
             .layer(RequestBodyLimitLayer::new(BODY_LIMIT))
             .layer(CatchPanicLayer::custom(error::panic_response))
             .layer(TimeoutLayer::with_status_code(
                 StatusCode::REQUEST_TIMEOUT,
                 config.request_timeout,
             ))
-            .layer(GlobalConcurrencyLimitLayer::new(config.max_concurrent))
+            .layer(RequestBodyTimeoutLayer::new(config.body_timeout))
             .layer(DefaultBodyLimit::max(BODY_LIMIT)),
     )
+}
+
+/// How many requests with a body each client address has in progress; the
+/// address is the one [`serve_on`] puts on each request as [`ConnectInfo`].
+#[derive(Clone)]
+struct BodiesInProgress {
+    limit: usize,
+    counts: Arc<Mutex<HashMap<IpAddr, usize>>>,
+}
+
+/// One request's place in [`BodiesInProgress`], given back when it is dropped.
+struct BodyTurn {
+    counts: Arc<Mutex<HashMap<IpAddr, usize>>>,
+    ip: IpAddr,
+}
+
+impl BodiesInProgress {
+    fn new(limit: usize) -> BodiesInProgress {
+        BodiesInProgress {
+            limit: limit.max(1),
+            counts: Arc::default(),
+        }
+    }
+
+    /// A turn for `ip`, unless it has `limit` bodies in progress already.
+    fn take(&self, ip: IpAddr) -> Option<BodyTurn> {
+        let mut counts = self.counts.lock().unwrap_or_else(|e| e.into_inner());
+        let count = counts.entry(ip).or_insert(0);
+        if *count >= self.limit {
+            return None;
+        }
+        *count += 1;
+        Some(BodyTurn {
+            counts: Arc::clone(&self.counts),
+            ip,
+        })
+    }
+}
+
+impl Drop for BodyTurn {
+    fn drop(&mut self) {
+        let mut counts = self.counts.lock().unwrap_or_else(|e| e.into_inner());
+        if let Some(count) = counts.get_mut(&self.ip) {
+            *count = count.saturating_sub(1);
+            if *count == 0 {
+                counts.remove(&self.ip);
+            }
+        }
+    }
+}
+
+/// Whether a request's head announces a body (RFC 9112 section 6.3).
+fn has_body(request: &Request) -> bool {
+    let headers = request.headers();
+    headers.contains_key(header::TRANSFER_ENCODING)
+        || headers
+            .get(header::CONTENT_LENGTH)
+            .is_some_and(|v| v.as_bytes() != b"0")
+}
+
+/// Answers 429 to a request with a body from an address that has
+/// `max_bodies_per_client` of them in progress, so that one client trickling
+/// bodies cannot take every turn; the turn is held until the answer is ready,
+/// which is after the body has been read.
+async fn limit_bodies_per_client(
+    State(bodies): State<BodiesInProgress>,
+    request: Request,
+    next: Next,
+) -> Response {
+    let peer = request
+        .extensions()
+        .get::<ConnectInfo<SocketAddr>>()
+        .map(|c| c.0.ip());
+    let turn = match peer {
+        Some(ip) if has_body(&request) => match bodies.take(ip) {
+            Some(turn) => Some(turn),
+            None => {
+                let json = error::answers_json(request.uri().path());
+                return error::Error::TooManyBodies(bodies.limit).answer(json);
+            }
+        },
+        _ => None,
+    };
+    let response = next.run(request).await;
+    drop(turn);
+    response
 }
 
 /// The media type of a Content-Type value, without its parameters and the
@@ -232,11 +355,70 @@ pub async fn serve(addr: SocketAddr, config: Config) -> std::io::Result<()> {
     let local = listener.local_addr()?;
     let state = AppState::load(config);
     tracing::info!(demos = state.demos.len(), "demo claims loaded");
+    let config = state.config.clone();
     let router = app(state);
     tracing::info!("liftaudit listening on http://{local}/");
-    axum::serve(listener, router)
-        .with_graceful_shutdown(shutdown_signal())
-        .await
+    serve_on(listener, router, &config, shutdown_signal()).await;
+    Ok(())
+}
+
+/// Serves `router` on `listener` until `shutdown` is ready, then finishes
+/// the connections in flight. HTTP/1.1 through hyper's connection builder
+/// with tokio's timer, so that a connection that sends no whole request head
+/// within `config.header_read_timeout` (a new one, or one idle between
+/// requests) is closed; at most `config.max_connections` are open at once,
+/// the rest wait in the listen queue. Each request carries its client's
+/// address as [`ConnectInfo`].
+pub async fn serve_on(
+    listener: tokio::net::TcpListener,
+    router: Router,
+    config: &Config,
+    shutdown: impl Future<Output = ()>,
+) {
+    let open = Arc::new(Semaphore::new(config.max_connections.max(1)));
+    let graceful = GracefulShutdown::new();
+    let mut http = http1::Builder::new();
+    http.timer(TokioTimer::new())
+        .header_read_timeout(config.header_read_timeout);
+    tokio::pin!(shutdown);
+    loop {
+        let permit = tokio::select! {
+            permit = Arc::clone(&open).acquire_owned() => match permit {
+                Ok(permit) => permit,
+                Err(_) => break,
+            },
+            () = &mut shutdown => break,
+        };
+        let (stream, peer) = tokio::select! {
+            accepted = listener.accept() => match accepted {
+                Ok(pair) => pair,
+                Err(e) => {
+                    // Out of file descriptors, or a connection reset before
+                    // it was taken: wait a moment rather than spin.
+                    tracing::warn!(error = %e, "cannot accept a connection");
+                    tokio::time::sleep(Duration::from_millis(50)).await;
+                    continue;
+                }
+            },
+            () = &mut shutdown => break,
+        };
+        let service = router
+            .clone()
+            .map_request(move |mut request: Request<Incoming>| {
+                request.extensions_mut().insert(ConnectInfo(peer));
+                request
+            });
+        let connection = graceful
+            .watch(http.serve_connection(TokioIo::new(stream), TowerToHyperService::new(service)));
+        tokio::spawn(async move {
+            if let Err(e) = connection.await {
+                tracing::debug!(error = %e, %peer, "connection ended");
+            }
+            drop(permit);
+        });
+    }
+    drop(listener);
+    graceful.shutdown().await;
 }
 
 async fn shutdown_signal() {

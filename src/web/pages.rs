@@ -41,6 +41,7 @@ pub async fn index(
 }
 
 const FORM_TYPE: &str = "application/x-www-form-urlencoded";
+const MULTIPART_TYPE: &str = "multipart/form-data";
 
 /// What the form sends: the pressed button (`from`), the sheet box or upload,
 /// and the fields.
@@ -48,6 +49,13 @@ pub struct Submission {
     pub from: Option<String>,
     pub sheet: String,
     pub fields: HashMap<String, String>,
+    /// The sheet files uploaded (name and text), empty ones left out.
+    pub files: Vec<(String, String)>,
+}
+
+/// A failed read of the request body as the error it stands for.
+fn body_failure<E: std::error::Error + 'static>(status: StatusCode, text: String, e: &E) -> Error {
+    Error::from_body_failure(status, text, e)
 }
 
 impl<S: Send + Sync> FromRequest<S> for Submission {
@@ -55,84 +63,109 @@ impl<S: Send + Sync> FromRequest<S> for Submission {
 
     /// Reads either encoding a browser sends: multipart (the form, which can
     /// upload a file) or urlencoded (a form without the upload, or curl).
+    /// Media types are compared without regard to case (RFC 9110 section 8.3.1).
     async fn from_request(req: Request, state: &S) -> Result<Submission, Error> {
-        let multipart = req
+        let media_type = req
             .headers()
             .get(header::CONTENT_TYPE)
-            .and_then(|v| v.to_str().ok())
-            .is_some_and(|v| v.starts_with("multipart/form-data"));
+            .map(|v| super::media_type(v).to_ascii_lowercase());
         let mut sub = Submission {
             from: None,
             sheet: String::new(),
             fields: HashMap::new(),
+            files: Vec::new(),
         };
-        if multipart {
-            let mut parts = Multipart::from_request(req, state)
-                .await
-                .map_err(|e| Error::from_status(e.status(), e.body_text()))?;
-            let mut uploaded: Option<String> = None;
-            while let Some(part) = parts
-                .next_field()
-                .await
-                .map_err(|e| Error::from_status(e.status(), e.body_text()))?
-            {
-                let name = part.name().unwrap_or("").to_string();
-                let is_file = part.file_name().is_some();
-                let bytes = part
-                    .bytes()
+        match media_type.as_deref() {
+            Some(MULTIPART_TYPE) => {
+                let mut parts = Multipart::from_request(req, state)
                     .await
-                    .map_err(|e| Error::from_status(e.status(), e.body_text()))?;
-                let text = String::from_utf8(bytes.to_vec()).map_err(|_| {
-                    Error::BadRequest(format!("the field '{name}' is not UTF-8 text"))
-                })?;
-                match name.as_str() {
-                    "sheet" if is_file => {
-                        if !text.trim().is_empty() {
-                            uploaded = Some(text);
+                    .map_err(|e| body_failure(e.status(), e.body_text(), &e))?;
+                while let Some(part) = parts
+                    .next_field()
+                    .await
+                    .map_err(|e| body_failure(e.status(), e.body_text(), &e))?
+                {
+                    let name = part.name().unwrap_or("").to_string();
+                    let file_name = part.file_name().map(str::to_string);
+                    let bytes = part
+                        .bytes()
+                        .await
+                        .map_err(|e| body_failure(e.status(), e.body_text(), &e))?;
+                    let text = String::from_utf8(bytes.to_vec()).map_err(|_| {
+                        Error::BadRequest(format!("the field '{name}' is not UTF-8 text"))
+                    })?;
+                    match (name.as_str(), file_name) {
+                        ("sheet", Some(file)) => {
+                            if !text.trim().is_empty() {
+                                sub.files.push((file, text));
+                            }
+                        }
+                        ("sheet", None) => sub.sheet = text,
+                        ("from", _) => sub.from = Some(text),
+                        _ => {
+                            sub.fields.insert(name, text);
                         }
                     }
-                    "sheet" => sub.sheet = text,
-                    "from" => sub.from = Some(text),
-                    _ => {
-                        sub.fields.insert(name, text);
+                }
+            }
+            Some(FORM_TYPE) => {
+                let body = Bytes::from_request(req, state)
+                    .await
+                    .map_err(|e| body_failure(e.status(), e.body_text(), &e))?;
+                // Split and decoded as the WHATWG URL standard says (section 5.1):
+                // `+` is a space, `%XX` a byte, U+FFFD for what is not UTF-8.
+                for (name, value) in form_urlencoded::parse(&body) {
+                    match &*name {
+                        "sheet" => sub.sheet = value.into_owned(),
+                        "from" => sub.from = Some(value.into_owned()),
+                        _ => {
+                            sub.fields.insert(name.into_owned(), value.into_owned());
+                        }
                     }
                 }
             }
-            if let Some(text) = uploaded {
-                sub.sheet = text;
-            }
-        } else {
-            let urlencoded = req
-                .headers()
-                .get(header::CONTENT_TYPE)
-                .is_some_and(|v| super::media_type(v).eq_ignore_ascii_case(FORM_TYPE));
-            if !urlencoded {
+            _ => {
                 return Err(Error::BadRequest(format!(
-                    "Form requests must have `Content-Type: {FORM_TYPE}`"
-                )));
-            }
-            let body = Bytes::from_request(req, state)
-                .await
-                .map_err(|e| Error::from_status(e.status(), e.body_text()))?;
-            // Split and decoded as the WHATWG URL standard says (section 5.1):
-            // `+` is a space, `%XX` a byte, U+FFFD for what is not UTF-8.
-            for (name, value) in form_urlencoded::parse(&body) {
-                match &*name {
-                    "sheet" => sub.sheet = value.into_owned(),
-                    "from" => sub.from = Some(value.into_owned()),
-                    _ => {
-                        sub.fields.insert(name.into_owned(), value.into_owned());
-                    }
-                }
+                    "Form requests must have `Content-Type: {FORM_TYPE}` or `{MULTIPART_TYPE}`"
+                )))
             }
         }
         Ok(sub)
     }
 }
 
+/// The form refused with one message at the sheet box (422).
+fn sheet_refused(state: &SharedState, sheet: String, message: String) -> Result<Response, Error> {
+    let page = index_page(state, FormView::sheet_refused(sheet, vec![message]), None);
+    Ok((StatusCode::UNPROCESSABLE_ENTITY, Html(page.render()?)).into_response())
+}
+
 /// `POST /check`: the verdict page for the sheet, or the form again with
 /// the input kept and every error beside what it is about.
-pub async fn check(State(state): State<SharedState>, sub: Submission) -> Result<Response, Error> {
+pub async fn check(
+    State(state): State<SharedState>,
+    mut sub: Submission,
+) -> Result<Response, Error> {
+    if sub.files.len() > 1 {
+        let names: Vec<&str> = sub.files.iter().map(|(name, _)| name.as_str()).collect();
+        let message = format!(
+            "{} sheet files were uploaded ({}); upload one file at a time.",
+            names.len(),
+            names.join(", ")
+        );
+        return sheet_refused(&state, sub.sheet, message);
+    }
+    // An uploaded file is checked rather than the sheet box; the page says so
+    // when the box held a sheet too.
+    let mut note = None;
+    if let Some((name, text)) = sub.files.pop() {
+        if !sub.sheet.trim().is_empty() && sub.sheet != text {
+            note = Some(format!(
+                "The uploaded file '{name}' was checked; the sheet pasted in the box was not used."
+            ));
+        }
+        sub.sheet = text;
+    }
     // Enter in a text input presses the first button (`from=sheet`), so an
     // empty sheet box with filled fields means the fields.
     let fields_filled = sub.fields.values().any(|v| !v.trim().is_empty());
@@ -148,7 +181,14 @@ pub async fn check(State(state): State<SharedState>, sub: Submission) -> Result<
             Err(errors) => return refused(&errors, StatusCode::UNPROCESSABLE_ENTITY),
         };
         return match claim::parse(&sheet, claim::Format::Toml) {
-            Ok(c) => verdict(&c, Downloads { demo: None, sheet }),
+            Ok(c) => verdict(
+                &c,
+                Downloads {
+                    demo: None,
+                    sheet,
+                    note: None,
+                },
+            ),
             Err(claim::Error::Invalid(errors)) => {
                 refused(&errors, StatusCode::UNPROCESSABLE_ENTITY)
             }
@@ -156,12 +196,11 @@ pub async fn check(State(state): State<SharedState>, sub: Submission) -> Result<
         };
     }
     if sub.sheet.trim().is_empty() {
-        let form = FormView::sheet_refused(
+        return sheet_refused(
+            &state,
             String::new(),
-            vec!["The sheet is empty: paste a claim sheet, upload one, or fill in the fields below and use their button.".into()],
+            "The sheet is empty: paste a claim sheet, upload one, or fill in the fields below and use their button.".into(),
         );
-        let page = index_page(&state, form, None);
-        return Ok((StatusCode::UNPROCESSABLE_ENTITY, Html(page.render()?)).into_response());
     }
     match claim::parse_any(&sub.sheet) {
         Ok(c) => verdict(
@@ -169,6 +208,7 @@ pub async fn check(State(state): State<SharedState>, sub: Submission) -> Result<
             Downloads {
                 demo: None,
                 sheet: sub.sheet,
+                note,
             },
         ),
         Err(e) => {
@@ -201,6 +241,7 @@ pub fn demo_page(
     let downloads = Downloads {
         demo: Some(d.name),
         sheet: d.text.to_string(),
+        note: None,
     };
     VerdictPage::new(report, claim, None, downloads).render()
 }

@@ -205,6 +205,8 @@ impl<'a> FindingView<'a> {
 pub struct Downloads {
     pub demo: Option<&'static str>,
     pub sheet: String,
+    /// Which of the form's inputs was checked, when it held more than one.
+    pub note: Option<String>,
 }
 
 /// The one-paragraph summary under the overall verdict.

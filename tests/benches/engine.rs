@@ -48,6 +48,7 @@ fn engine(c: &mut Criterion) {
                 let downloads = Downloads {
                     demo: None,
                     sheet: d.text.to_string(),
+                    note: None,
                 };
                 VerdictPage::new(black_box(&report), &claim, layout.as_ref(), downloads).render()
             })

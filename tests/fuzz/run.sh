@@ -10,7 +10,7 @@ if ! command -v cargo-fuzz >/dev/null 2>&1; then
 fi
 
 # Seed corpus: each demo sheet as TOML, and the same sheet as JSON.
-for target in parse_toml parse_json check; do
+for target in parse_toml parse_json check extreme; do
     mkdir -p "corpus/$target"
 done
 for sheet in ../../demo-claims/*.toml; do
@@ -21,10 +21,13 @@ for sheet in ../../demo-claims/*.toml; do
         "$sheet" > "corpus/parse_json/$name.json"
     cp "corpus/parse_json/$name.json" "corpus/check/$name.json"
 done
+# The extreme target picks a demo and fields by its bytes: a few seeds.
+printf '\000\004\000\000' > corpus/extreme/tiny-power
+printf '\001\000\255\255\003\000\000' > corpus/extreme/huge-mass-tiny-thrust
 
 # cargo fuzz passes unstable compiler flags; RUSTC_BOOTSTRAP lets the stable toolchain take them.
 export RUSTC_BOOTSTRAP=1
-for target in parse_toml parse_json check; do
+for target in parse_toml parse_json check extreme; do
     echo "fuzzing $target for ${seconds}s"
     (cd ../.. && cargo fuzz run --fuzz-dir tests/fuzz --sanitizer none "$target" "tests/fuzz/corpus/$target" -- \
         -max_total_time="$seconds" -timeout=5 -rss_limit_mb=2048 -print_final_stats=1) 2>&1 | tail -n 12
