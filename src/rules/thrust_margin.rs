@@ -294,15 +294,9 @@ pub fn estimate(claim: &Claim, air: &Air) -> Option<Estimate> {
             });
             (Basis::Class(c), available)
         }
-        (None, Some(c), None) => {
-            // A class always gives power and diameter; kept for completeness.
-            let available = PerTier::from_fn(|t| {
-                class_thrust(c, class_power(c, voltage, t), t) * (density_ratio * coax[t])
-            });
-            (Basis::Class(c), available)
-        }
-        (None, None, Some(b)) => (Basis::Power, b),
-        (None, None, None) => return None,
+        // A class always gives power and diameter, so its bound is always there.
+        (None, _, Some(b)) => (Basis::Power, b),
+        (None, _, None) => return None,
     };
     let out_of_range = matches!((class, voltage), (Some(c), Some(v)) if far_outside(c, v));
     Some(Estimate {
