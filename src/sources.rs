@@ -107,6 +107,33 @@ pub const SOURCES: &[Source] = &[
                  velocity v_i = v_h^2 / sqrt((V cos a)^2 + (V sin a + v_i)^2); power in level \
                  flight = induced + profile + parasite (1/2 rho V^3 f), least at the bucket speed.",
     },
+    Source {
+        id: "deters-2014",
+        title: "Deters, Ananda, Selig, Reynolds number effects on the performance of small-scale \
+                propellers, 2014",
+        detail: "R. W. Deters, G. K. Ananda, M. S. Selig, AIAA 2014-2151, 32nd AIAA Applied \
+                 Aerodynamics Conference, 2014: static and advancing-flow tests of 27 off-the-shelf \
+                 and 4 printed propellers of 2.25-9 in (57-229 mm), performance falling with the \
+                 Reynolds number; the small ones reach a static figure of merit of about 0.65 \
+                 at best.",
+    },
+    Source {
+        id: "brandt-selig-2011",
+        title: "Brandt and Selig, Propeller performance data at low Reynolds numbers, 2011",
+        detail: "J. B. Brandt, M. S. Selig, AIAA 2011-1255, 49th AIAA Aerospace Sciences Meeting, \
+                 2011: static and wind-tunnel tests of 9-11 in (229-279 mm) hobby propellers; \
+                 static thrust and power coefficients C_T = T / (rho n^2 D^4), C_P = P / (rho n^3 \
+                 D^5), the best with a figure of merit of about 0.75.",
+    },
+    Source {
+        id: "propeller-laws",
+        title: "Propeller laws at fixed propeller and motor constant",
+        detail: "For a given propeller in static operation C_T and C_P are nearly constant (Reynolds \
+                 effects aside; Brandt and Selig 2011), so T = C_T rho n^2 D^4 and P = C_P rho n^3 \
+                 D^5: thrust goes with rpm^2, power with rpm^3, thrust with power^(2/3). A DC \
+                 motor turns at n = KV (V - I R), taken as n proportional to V at fixed KV, so \
+                 thrust goes with V^2, power with V^3 and current P / V with V^2.",
+    },
 ];
 
 pub fn get(id: &str) -> Option<&'static Source> {

@@ -7,8 +7,11 @@ pub mod tiers;
 use std::fmt;
 
 use serde::Serialize;
-use uom::si::f64::{Force, Length, Mass, Power};
-use uom::si::{force::gram_force, length::millimeter, mass::gram, power::watt};
+use uom::si::f64::{ElectricCurrent, ElectricPotential, Force, Length, Mass, Power};
+use uom::si::{
+    electric_current::ampere, electric_potential::volt, force::gram_force, length::millimeter,
+    mass::gram, power::watt,
+};
 use utoipa::ToSchema;
 
 /// Where a value comes from.
@@ -63,7 +66,9 @@ impl Drive {
 
 /// A motor class by the trade's size designation (can diameter x length in mm
 /// for coreless motors, stator diameter and height for brushless ones), with
-/// its usual propeller. Values are for one motor at its usual cell count.
+/// its usual propeller. Its power and thrust are for one motor at one stated
+/// reference voltage, the nominal voltage of the LiPo cell count they are for;
+/// on another pack they follow the propeller laws (`propeller-laws`).
 #[derive(Debug, Clone, PartialEq, Serialize, ToSchema)]
 pub struct MotorClass {
     pub id: &'static str,
@@ -71,20 +76,32 @@ pub struct MotorClass {
     pub drive: Drive,
     /// Mass of one motor, g.
     pub mass_g: f64,
-    /// Electrical power at full throttle, W.
+    /// Electrical power at full throttle at the reference voltage, W.
     pub max_power_w: f64,
     /// Usual propeller diameters, mm (smallest, largest).
     pub prop_mm: (f64, f64),
-    /// Static thrust at full throttle at sea level, gram-force: what an
-    /// ordinary motor of the class gives, and the best of the class.
+    /// Static thrust at full throttle at sea level and the reference voltage,
+    /// gram-force: what an ordinary motor of the class gives, and the best of the class.
     pub thrust_gf: (f64, f64),
+    /// The voltage the power and thrust are for, V: the nominal voltage of
+    /// `ref_cells` LiPo cells of 3.7 V.
+    pub ref_voltage_v: f64,
+    pub ref_cells: u32,
+    /// LiPo cell counts the class is sold for (fewest, most).
+    pub cells: (u32, u32),
+    /// Largest current one motor may draw, A (its makers' peak rating).
+    pub max_current_a: f64,
     pub basis: Basis,
 }
+
+/// Nominal voltage of one LiPo cell, V, the trade's unit for a motor's voltage range.
+pub const LIPO_CELL_V: f64 = 3.7;
 
 impl MotorClass {
     pub fn mass(&self) -> Mass {
         Mass::new::<gram>(self.mass_g)
     }
+    /// Full-throttle electrical power at the reference voltage.
     pub fn max_power(&self) -> Power {
         Power::new::<watt>(self.max_power_w)
     }
@@ -101,10 +118,21 @@ impl MotorClass {
     pub fn best_thrust(&self) -> Force {
         Force::new::<gram_force>(self.thrust_gf.1)
     }
+    pub fn ref_voltage(&self) -> ElectricPotential {
+        ElectricPotential::new::<volt>(self.ref_voltage_v)
+    }
+    pub fn current_limit(&self) -> ElectricCurrent {
+        ElectricCurrent::new::<ampere>(self.max_current_a)
+    }
+    /// The nominal voltages of the fewest and most cells the class is sold for.
+    pub fn voltage_range(&self) -> (ElectricPotential, ElectricPotential) {
+        let v = |n: u32| ElectricPotential::new::<volt>(LIPO_CELL_V * f64::from(n));
+        (v(self.cells.0), v(self.cells.1))
+    }
 }
 
-const MOTORS_NOTE: &str =
-    "hobby motor classes as sold with their usual propellers; ranges recalled, not measured";
+const MOTORS_NOTE: &str = "hobby motor classes as sold with their usual propellers, at the \
+     reference cell count; ranges and peak currents recalled, not measured";
 
 /// The motor classes, smallest first.
 pub const MOTORS: &[MotorClass] = &[
@@ -116,6 +144,10 @@ pub const MOTORS: &[MotorClass] = &[
         max_power_w: 6.0,
         prop_mm: (31.0, 40.0),
         thrust_gf: (17.0, 23.0),
+        ref_voltage_v: 3.7,
+        ref_cells: 1,
+        cells: (1, 1),
+        max_current_a: 2.0,
         basis: Basis::FromMemory(MOTORS_NOTE),
     },
     MotorClass {
@@ -126,6 +158,10 @@ pub const MOTORS: &[MotorClass] = &[
         max_power_w: 10.0,
         prop_mm: (45.0, 55.0),
         thrust_gf: (30.0, 36.0),
+        ref_voltage_v: 3.7,
+        ref_cells: 1,
+        cells: (1, 1),
+        max_current_a: 3.3,
         basis: Basis::CommonPractice(
             "a 7 mm coreless motor with its usual propeller lifts about 30 g",
         ),
@@ -138,6 +174,10 @@ pub const MOTORS: &[MotorClass] = &[
         max_power_w: 14.0,
         prop_mm: (55.0, 65.0),
         thrust_gf: (42.0, 52.0),
+        ref_voltage_v: 3.7,
+        ref_cells: 1,
+        cells: (1, 1),
+        max_current_a: 4.5,
         basis: Basis::FromMemory(MOTORS_NOTE),
     },
     MotorClass {
@@ -148,76 +188,108 @@ pub const MOTORS: &[MotorClass] = &[
         max_power_w: 15.0,
         prop_mm: (31.0, 40.0),
         thrust_gf: (30.0, 40.0),
+        ref_voltage_v: 3.7,
+        ref_cells: 1,
+        cells: (1, 1),
+        max_current_a: 5.0,
         basis: Basis::FromMemory(MOTORS_NOTE),
     },
     MotorClass {
         id: "brushless-1103",
-        label: "1103 brushless, 40-65 mm propeller, 1-2 cells",
+        label: "1103 brushless, 40-65 mm propeller, 1-2 cells (figures at 2)",
         drive: Drive::Brushless,
         mass_g: 4.0,
         max_power_w: 35.0,
         prop_mm: (40.0, 65.0),
         thrust_gf: (70.0, 95.0),
+        ref_voltage_v: 7.4,
+        ref_cells: 2,
+        cells: (1, 2),
+        max_current_a: 6.0,
         basis: Basis::FromMemory(MOTORS_NOTE),
     },
     MotorClass {
         id: "brushless-1404",
-        label: "1404 brushless, 3-3.5 in propeller, 3-4 cells",
+        label: "1404 brushless, 3-3.5 in propeller, 3-4 cells (figures at 3)",
         drive: Drive::Brushless,
         mass_g: 9.0,
         max_power_w: 90.0,
         prop_mm: (76.0, 90.0),
         thrust_gf: (200.0, 280.0),
+        ref_voltage_v: 11.1,
+        ref_cells: 3,
+        cells: (3, 4),
+        max_current_a: 10.0,
         basis: Basis::FromMemory(MOTORS_NOTE),
     },
     MotorClass {
         id: "brushless-2204",
-        label: "2204 brushless, 5-6 in propeller, 3 cells",
+        label: "2204 brushless, 5-6 in propeller, 3-4 cells (figures at 3)",
         drive: Drive::Brushless,
         mass_g: 26.0,
         max_power_w: 160.0,
         prop_mm: (127.0, 152.0),
         thrust_gf: (450.0, 600.0),
+        ref_voltage_v: 11.1,
+        ref_cells: 3,
+        cells: (3, 4),
+        max_current_a: 18.0,
         basis: Basis::FromMemory(MOTORS_NOTE),
     },
     MotorClass {
         id: "brushless-2212",
-        label: "2212 brushless, 9-10 in propeller, 3 cells",
+        label: "2212 brushless, 9-10 in propeller, 3-4 cells (figures at 3)",
         drive: Drive::Brushless,
         mass_g: 55.0,
         max_power_w: 220.0,
         prop_mm: (229.0, 254.0),
         thrust_gf: (750.0, 950.0),
+        ref_voltage_v: 11.1,
+        ref_cells: 3,
+        cells: (3, 4),
+        max_current_a: 25.0,
         basis: Basis::FromMemory(MOTORS_NOTE),
     },
     MotorClass {
         id: "brushless-2306",
-        label: "2306 brushless, 5 in propeller, 6 cells",
+        label: "2306 brushless, 5 in propeller, 4-6 cells (figures at 6)",
         drive: Drive::Brushless,
         mass_g: 32.0,
         max_power_w: 600.0,
         prop_mm: (127.0, 130.0),
         thrust_gf: (1100.0, 1450.0),
+        ref_voltage_v: 22.2,
+        ref_cells: 6,
+        cells: (4, 6),
+        max_current_a: 35.0,
         basis: Basis::FromMemory(MOTORS_NOTE),
     },
     MotorClass {
         id: "brushless-2814",
-        label: "2814 brushless, 10-12 in propeller, 4 cells",
+        label: "2814 brushless, 10-12 in propeller, 4-6 cells (figures at 4)",
         drive: Drive::Brushless,
         mass_g: 90.0,
         max_power_w: 450.0,
         prop_mm: (254.0, 305.0),
         thrust_gf: (1500.0, 2000.0),
+        ref_voltage_v: 14.8,
+        ref_cells: 4,
+        cells: (4, 6),
+        max_current_a: 38.0,
         basis: Basis::FromMemory(MOTORS_NOTE),
     },
     MotorClass {
         id: "brushless-3508",
-        label: "3508 brushless, 12-15 in propeller, 4-6 cells",
+        label: "3508 brushless, 12-15 in propeller, 4-6 cells (figures at 6)",
         drive: Drive::Brushless,
         mass_g: 80.0,
         max_power_w: 380.0,
         prop_mm: (305.0, 381.0),
         thrust_gf: (1600.0, 2200.0),
+        ref_voltage_v: 22.2,
+        ref_cells: 6,
+        cells: (4, 6),
+        max_current_a: 22.0,
         basis: Basis::FromMemory(MOTORS_NOTE),
     },
     MotorClass {
@@ -228,6 +300,10 @@ pub const MOTORS: &[MotorClass] = &[
         max_power_w: 750.0,
         prop_mm: (381.0, 432.0),
         thrust_gf: (3000.0, 3800.0),
+        ref_voltage_v: 22.2,
+        ref_cells: 6,
+        cells: (6, 6),
+        max_current_a: 42.0,
         basis: Basis::FromMemory(MOTORS_NOTE),
     },
 ];
@@ -317,12 +393,11 @@ mod tests {
     use super::*;
     use crate::physics::{atmosphere, rotor};
     use tiers::Tier;
-    use uom::si::f64::Length;
 
     fn bound_at(class: &MotorClass, diameter: Length, tier: Tier) -> Force {
         let air = atmosphere::isa(Length::new::<millimeter>(0.0), None);
         let fm = tiers::figure_of_merit(tier, diameter);
-        let eta = tiers::drive_efficiency(tier, class.drive);
+        let eta = tiers::drive_efficiency(tier, class.drive, diameter);
         rotor::thrust_bound(
             air.density,
             rotor::disk_area(diameter),
@@ -344,6 +419,41 @@ mod tests {
                 bound.get::<gram_force>()
             );
             assert!(class.thrust_gf.0 <= class.thrust_gf.1, "{}", class.id);
+        }
+    }
+
+    #[test]
+    fn each_motor_class_states_one_reference_voltage_inside_its_range_and_a_current_limit() {
+        // Each class's figures are for one cell count: V0 = cells x 3.7 V (LiPo nominal,
+        // Linden's Handbook of Batteries), inside the cell range it is sold for; its current
+        // limit is at least the full-throttle current there, I0 = P0 / V0 (battery-energy).
+        for class in MOTORS {
+            let v0 = class.ref_voltage().get::<volt>();
+            assert!(
+                (v0 - LIPO_CELL_V * f64::from(class.ref_cells)).abs() < 1e-9,
+                "{}",
+                class.id
+            );
+            assert!(
+                (class.cells.0..=class.cells.1).contains(&class.ref_cells),
+                "{}",
+                class.id
+            );
+            let i0 = class.max_power_w / v0;
+            assert!(
+                class.max_current_a >= i0 && class.max_current_a <= 1.5 * i0,
+                "{}: {} A against {i0} A at the reference",
+                class.id,
+                class.max_current_a
+            );
+            assert!(
+                class.label.contains(&format!("{} cell", class.ref_cells))
+                    || class
+                        .label
+                        .contains(&format!("figures at {}", class.ref_cells)),
+                "{}: the label names the reference cells",
+                class.id
+            );
         }
     }
 

@@ -8,4 +8,5 @@ pub mod body;
 pub mod control;
 pub mod drag;
 pub mod forward;
+pub mod propeller;
 pub mod rotor;

@@ -12,6 +12,7 @@ pub const THRUST_AVAILABLE: &str = "thrust_available";
 pub const HOVER_FRACTION: &str = "hover_fraction";
 pub const ROTORS_NEEDED: &str = "rotors_needed";
 pub const THRUST_BOUND: &str = "thrust_bound";
+pub const FULL_THROTTLE_CURRENT: &str = "full_throttle_current";
 
 // tilt-equilibrium
 pub const HOVER_TILT: &str = "hover_tilt";

@@ -45,7 +45,7 @@ impl Airframe {
         let w: Force = m * self.air.gravity;
         let ideal = rotor::ideal_power(w, self.air.density, self.disk);
         let fm = tiers::figure_of_merit(tier, self.diameter);
-        let eta = tiers::drive_efficiency(tier, self.drive);
+        let eta = tiers::drive_efficiency(tier, self.drive, self.diameter);
         ideal / (fm * eta) + Power::new::<watt>(AVIONICS_POWER.at(tier))
     }
 
@@ -251,7 +251,7 @@ pub fn check(claim: &Claim) -> Finding {
         "Figure of merit {} for a {} mm rotor; drive efficiency {} ({}); usable capacity {}; avionics {} W (physical limit / best practice / typical).",
         PerTier::from_fn(|t| tiers::figure_of_merit(t, diameter)),
         Sig3(diameter.get::<uom::si::length::millimeter>()),
-        PerTier::from_fn(|t| Sig3(tiers::drive_efficiency(t, frame.drive))),
+        PerTier::from_fn(|t| Sig3(tiers::drive_efficiency(t, frame.drive, diameter))),
         frame.drive.id(),
         DEPTH_OF_DISCHARGE.values,
         AVIONICS_POWER.values,
