@@ -13,9 +13,15 @@ use crate::physics::rotor;
 use crate::report::{Figure, Verdict};
 use crate::tier::Tier;
 
-/// The air the claim flies in: ISA at the stated altitude and temperature.
+/// The air the claim flies in: at the stated station pressure when there is
+/// one, else the ISA pressure at the stated (pressure) altitude; at the stated
+/// temperature, else the ISA one; gravity at the stated altitude (`isa`).
 pub fn air(claim: &Claim) -> Air {
-    atmosphere::isa(claim.conditions.altitude, claim.conditions.temperature)
+    let c = &claim.conditions;
+    match c.pressure {
+        Some(p) => atmosphere::at_pressure(p, c.temperature, c.altitude),
+        None => atmosphere::isa(c.altitude, c.temperature),
+    }
 }
 
 /// Weight W = m g with the local gravity (`isa`).
