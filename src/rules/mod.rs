@@ -5,7 +5,9 @@
 pub mod common;
 pub mod control_authority;
 pub mod energy_budget;
+pub mod fields;
 pub mod sensing;
+pub mod sheet_consistency;
 pub mod thrust_margin;
 pub mod tilt_equilibrium;
 
@@ -39,6 +41,7 @@ pub const REGISTRY: &[Rule] = &[
     rule!(energy_budget),
     rule!(sensing),
     rule!(control_authority),
+    rule!(sheet_consistency),
 ];
 
 /// Runs every rule and gathers the report.
@@ -47,6 +50,7 @@ pub fn run_all(claim: &Claim) -> Report {
         claim.title.clone(),
         REGISTRY.iter().map(|r| (r.check)(claim)).collect(),
     )
+    .with_unused(fields::unused(claim))
 }
 
 /// [`run_all`], and the top view of the rotors that the control-authority
@@ -66,5 +70,6 @@ pub fn run_all_with_layout(claim: &Claim) -> (Report, Option<control_authority::
             }
         })
         .collect();
-    (Report::new(claim.title.clone(), findings), layout)
+    let report = Report::new(claim.title.clone(), findings).with_unused(fields::unused(claim));
+    (report, layout)
 }
