@@ -252,6 +252,8 @@ pub struct VerdictPage<'a> {
     pub source: Option<&'a str>,
     pub verdict: VerdictView,
     pub summary: String,
+    /// The sheet fields no check read, named under the verdict.
+    pub unused: &'a [String],
     pub findings: Vec<FindingView<'a>>,
     pub drawings: Vec<Drawing>,
     pub tiers: [&'static str; 3],
@@ -274,6 +276,7 @@ impl<'a> VerdictPage<'a> {
             source: claim.source.as_deref(),
             verdict: VerdictView::of(report.verdict),
             summary: summary(report),
+            unused: &report.unused,
             findings: report.findings.iter().map(FindingView::of).collect(),
             drawings: figures::all(report, claim, layout),
             tiers: Tier::ALL.map(|t| t.label()),
