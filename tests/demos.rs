@@ -161,6 +161,9 @@ count = 4
 layout = "custom"
 diameter = "5 in"
 motor = "brushless-2204"
+arm = "113 mm"
+spins = ["cw", "ccw", "cw", "ccw"]
+tilt_range = "20 deg"
 [[rotors.at]]
 x = "80 mm"
 y = "80 mm"
@@ -214,6 +217,17 @@ fn taking_out_the_fields_the_report_calls_unused_changes_no_finding() {
         );
         assert!(again.unused.is_empty(), "{name}: {:?}", again.unused);
     }
+}
+
+#[test]
+fn rotors_placed_by_hand_pass_over_the_presets_arm_spins_and_tilt_range() {
+    // By hand: each [[rotors.at]] gives its own place and spin, and the mount is
+    // fixed, so the sheet's rotors.arm, rotors.spins and rotors.tilt_range go unread.
+    let claim = claim::parse_any(EVERY_FIELD[1]).unwrap();
+    assert_eq!(
+        rules::run_all(&claim).unused,
+        ["rotors.arm", "rotors.spins", "rotors.tilt_range"]
+    );
 }
 
 #[test]

@@ -13,7 +13,7 @@
 use super::{
     control_authority, energy_budget, sensing, sheet_consistency, thrust_margin, tilt_equilibrium,
 };
-use crate::claim::Claim;
+use crate::claim::{Claim, Layout, Mount};
 
 /// `common::air`: the station pressure, else the ISA pressure at the
 /// (pressure) altitude; the temperature; gravity from the altitude.
@@ -120,6 +120,20 @@ pub const READS: &[(&str, &[&[&str]])] = &[
     (sheet_consistency::ID, &[sheet_consistency::READS]),
 ];
 
+/// Fields the lists name that no rule reads on this sheet: the rotors'
+/// tilt range outside a tilting mount or a tricopter's tail servo, and the
+/// spins and arm of rotors placed by hand (each `[[rotors.at]]` has its own;
+/// a coaxial pair sits on the centre line whatever its arm).
+fn passed_over(claim: &Claim, field: &str) -> bool {
+    let r = &claim.rotors;
+    match field {
+        "rotors.tilt_range" => r.mount != Mount::Tilting && r.layout != Some(Layout::Tri),
+        "rotors.spins" => r.layout == Some(Layout::Custom),
+        "rotors.arm" => matches!(r.layout, Some(Layout::Custom | Layout::Coaxial)),
+        _ => false,
+    }
+}
+
 /// Whether some rule (or the report) reads the field at this dotted path.
 pub fn is_read(field: &str) -> bool {
     REPORT_READS.contains(&field)
@@ -134,7 +148,7 @@ pub fn unused(claim: &Claim) -> Vec<String> {
     claim
         .given
         .iter()
-        .filter(|field| !is_read(field))
+        .filter(|field| !is_read(field) || passed_over(claim, field))
         .cloned()
         .collect()
 }

@@ -34,14 +34,15 @@ macro_rules! rule {
     };
 }
 
-/// Every rule, in report order.
+/// Every rule, in report order: the sheet against itself first, so that a
+/// reviewer meets a careless or nonsense sheet before the physics built on it.
 pub const REGISTRY: &[Rule] = &[
+    rule!(sheet_consistency),
     rule!(thrust_margin),
     rule!(tilt_equilibrium),
     rule!(energy_budget),
     rule!(sensing),
     rule!(control_authority),
-    rule!(sheet_consistency),
 ];
 
 /// Runs every rule and gathers the report.

@@ -446,6 +446,35 @@ mod tests {
     }
 
     #[test]
+    fn the_page_names_the_unused_fields_under_the_verdict_and_only_when_there_are_some() {
+        let claim = crate::claim::demo::find("classroom-quad")
+            .and_then(|d| crate::claim::parse_any(d.text).ok())
+            .unwrap();
+        let report = crate::rules::run_all(&claim);
+        let downloads = || Downloads {
+            demo: None,
+            sheet: String::new(),
+        };
+        let unused = report
+            .clone()
+            .with_unused(vec!["craft.colour".into(), "rotors.blades".into()]);
+        let page = VerdictPage::new(&unused, &claim, None, downloads())
+            .render()
+            .unwrap();
+        let list = "used by no check, so they change nothing above: <code>craft.colour</code>, <code>rotors.blades</code>.</p>";
+        assert!(page.contains(list), "the unused list is missing");
+        // Under the verdict: after the summary, before the first finding.
+        let at = page.find(list).unwrap();
+        assert!(page.find("class=\"summary\"").unwrap() < at);
+        assert!(at < page.find("class=\"panel finding").unwrap());
+        let none = report.with_unused(Vec::new());
+        let page = VerdictPage::new(&none, &claim, None, downloads())
+            .render()
+            .unwrap();
+        assert!(!page.contains("id=\"unused\""));
+    }
+
+    #[test]
     fn every_verdict_has_its_own_icon_shape() {
         let icons: Vec<&str> = Verdict::ALL.iter().map(|v| icon(*v)).collect();
         for (i, a) in icons.iter().enumerate() {
