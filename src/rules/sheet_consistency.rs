@@ -673,13 +673,14 @@ pub fn describe(claim: &Claim, solved: &Solution) -> Finding {
             "Parts tolerance below the mass: {PARTS_UNDER_BASIS}."
         ));
     }
-    if solved
+    let has_pressure = solved
         .checks
         .iter()
-        .any(|c| matches!(c, Check::Pressure { .. }))
-    {
+        .any(|c| matches!(c, Check::Pressure { .. }));
+    if has_pressure {
         assumptions.push(format!(
-            "The air is taken at the station pressure; conditions.altitude gives gravity. Ordinary weather: {WEATHER_ORDINARY_BASIS}. Records: {WEATHER_RECORDS_BASIS}."
+            "The air for every rule: {}. Ordinary weather: {WEATHER_ORDINARY_BASIS}. Records: {WEATHER_RECORDS_BASIS}.",
+            super::common::air_basis(claim, &super::common::air(claim))
         ));
     }
     Finding {
@@ -689,7 +690,8 @@ pub fn describe(claim: &Claim, solved: &Solution) -> Finding {
         figures: figures_out,
         would_take,
         assumptions,
-        sources: &["isa"],
+        // Only the pressure check rests on a published model; the rest is the sheet's own arithmetic.
+        sources: if has_pressure { &["isa"] } else { &[] },
     }
 }
 
