@@ -15,8 +15,8 @@ pub mod units;
 use std::fmt;
 
 use uom::si::f64::{
-    Angle, ElectricCharge, Force, Frequency, Length, Mass, Power, ThermodynamicTemperature, Time,
-    Velocity,
+    Angle, ElectricCharge, Force, Frequency, Length, Mass, Power, Pressure,
+    ThermodynamicTemperature, Time, Velocity,
 };
 
 use crate::catalog::{Chemistry, Drive, MotorClass};
@@ -43,7 +43,30 @@ pub fn parse(text: &str, format: Format) -> Result<Claim, Error> {
         Format::Toml => tree::from_toml(text)?,
         Format::Json => tree::from_json(text)?,
     };
-    read::claim(&tree)
+    let mut claim = read::claim(&tree)?;
+    claim.given = fields_given(&tree);
+    Ok(claim)
+}
+
+/// The dotted paths of the fields a sheet gives (`title`, `craft.mass`,
+/// `rotors.at`), sorted, the same for TOML and JSON: a top-level key, or a key of one of
+/// the top-level tables; a list of tables (`craft.parts`, `rotors.at`) counts
+/// as one field. Called on a sheet that was read, so every key is a known one.
+fn fields_given(tree: &tree::Node) -> Vec<String> {
+    let tree::Node::Table(top) = tree else {
+        return Vec::new();
+    };
+    let mut given = Vec::new();
+    for (key, node) in top {
+        match node {
+            tree::Node::Table(entries) => {
+                given.extend(entries.iter().map(|(field, _)| format!("{key}.{field}")))
+            }
+            _ => given.push(key.to_string()),
+        }
+    }
+    given.sort_unstable();
+    given
 }
 
 /// Reads a sheet whose format is told by its first non-blank character:
@@ -130,6 +153,9 @@ pub struct Claim {
     pub claim: Claimed,
     pub sensing: Sensing,
     pub conditions: Conditions,
+    /// The dotted paths of the fields the sheet gave, sorted, so that
+    /// the report can name those that no rule reads.
+    pub given: Vec<String>,
 }
 
 #[derive(Debug, Clone, PartialEq)]
@@ -311,8 +337,13 @@ pub struct Sensing {
 
 #[derive(Debug, Clone, PartialEq)]
 pub struct Conditions {
+    /// The pressure altitude: the height whose ISA pressure the air is taken
+    /// at (when no station pressure is given), and the height for gravity.
     pub altitude: Length,
-    /// Outside air temperature; `None` means the ISA value at the altitude.
+    /// Outside air temperature; `None` means the ISA value at the pressure altitude.
     pub temperature: Option<ThermodynamicTemperature>,
+    /// Station pressure, the air's pressure where the craft flies; when given
+    /// it decides the density instead of the ISA pressure at `altitude`.
+    pub pressure: Option<Pressure>,
     pub wind: Velocity,
 }

@@ -6,7 +6,7 @@ use uom::si::f64::{
 };
 use uom::si::{
     angle::radian, electric_charge::coulomb, force::newton, frequency::hertz, length::meter,
-    mass::kilogram, power::watt, thermodynamic_temperature::kelvin, time::second,
+    mass::kilogram, power::watt, pressure::pascal, thermodynamic_temperature::kelvin, time::second,
     velocity::meter_per_second,
 };
 
@@ -383,6 +383,9 @@ fn speed(v: f64) -> String {
 fn hertz_s(v: f64) -> String {
     format!("{v} Hz")
 }
+fn hectopascals(v: f64) -> String {
+    format!("{} hPa", v / 100.0)
+}
 fn c_rate(v: f64) -> String {
     format!("{v} C")
 }
@@ -462,22 +465,15 @@ fn read_claim(tree: &Node, errors: &mut Errors) -> Option<Claim> {
         None => Conditions {
             altitude: Length::new::<meter>(0.0),
             temperature: None,
+            pressure: None,
             wind: Velocity::new::<meter_per_second>(0.0),
         },
     };
     top.finish(errors);
 
+    // A battery that outweighs the craft is read, not refused: the
+    // sheet-consistency rule calls it impossible in the report.
     let (craft, rotors, claimed) = (craft?, rotors?, claimed?);
-    if let Some(b) = &battery {
-        if let Some(bm) = b.mass {
-            if bm >= craft.mass {
-                errors.push(
-                    "battery.mass",
-                    "must be less than craft.mass, which includes the battery",
-                );
-            }
-        }
-    }
     if claimed.survives_rotor_failure >= rotors.count {
         errors.push(
             "claim.survives_rotor_failure",
@@ -496,6 +492,7 @@ fn read_claim(tree: &Node, errors: &mut Errors) -> Option<Claim> {
         claim: claimed,
         sensing,
         conditions,
+        given: Vec::new(),
     })
 }
 
@@ -1047,10 +1044,19 @@ fn read_conditions(mut t: Table<'_, '_>, errors: &mut Errors) -> Conditions {
     let wind = t
         .si("wind", Dim::Speed, Range::closed(0.0, 60.0, speed), errors)
         .unwrap_or(0.0);
+    // Station pressure within the ISA troposphere: from 226.32 hPa (its top,
+    // 11 km) to 1100 hPa (above the highest sea-level pressure recorded, 1084.8 hPa).
+    let pressure = t.si(
+        "pressure",
+        Dim::Pressure,
+        Range::closed(22_632.0, 110_000.0, hectopascals),
+        errors,
+    );
     t.finish(errors);
     Conditions {
         altitude: Length::new::<meter>(altitude),
         temperature: temperature.map(ThermodynamicTemperature::new::<kelvin>),
+        pressure: pressure.map(Pressure::new::<pascal>),
         wind: Velocity::new::<meter_per_second>(wind),
     }
 }

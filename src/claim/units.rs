@@ -20,6 +20,7 @@ pub enum Dim {
     Frequency,
     CRate,
     Force,
+    Pressure,
 }
 
 impl Dim {
@@ -38,6 +39,7 @@ impl Dim {
             Dim::Frequency => "a frequency",
             Dim::CRate => "a discharge rate",
             Dim::Force => "a force",
+            Dim::Pressure => "a pressure",
         }
     }
 
@@ -56,6 +58,7 @@ impl Dim {
             Dim::Frequency => "'400 Hz'",
             Dim::CRate => "'20 C'",
             Dim::Force => "'3 N' or '30 g' (read as gram-force)",
+            Dim::Pressure => "'950 hPa' or '95 kPa'",
         }
     }
 }
@@ -251,6 +254,17 @@ const UNITS: &[(&[&str], Unit)] = &[
         &["ozf"],
         unit(Dim::Force, OUNCE * STANDARD_GRAVITY, "ounce-force"),
     ),
+    (&["Pa", "pascal", "pascals"], unit(Dim::Pressure, 1.0, "pascal")),
+    (
+        &["hPa", "hectopascal", "hectopascals", "mbar", "millibar", "millibars"],
+        unit(Dim::Pressure, 100.0, "hectopascal"),
+    ),
+    (
+        &["kPa", "kilopascal", "kilopascals"],
+        unit(Dim::Pressure, 1e3, "kilopascal"),
+    ),
+    // The conventional inch of mercury, 3386.389 Pa (NIST SP 811, B.8).
+    (&["inHg"], unit(Dim::Pressure, 3_386.389, "inch of mercury")),
 ];
 
 /// What a unit spelling reads as.
@@ -449,6 +463,16 @@ mod tests {
         assert_eq!(r.dim, Dim::Mass);
         // 1 gf = 9.80665e-3 N by the definition of standard gravity.
         assert!((r.si - 0.294_199_5).abs() < 1e-9);
+    }
+
+    #[test]
+    fn a_hectopascal_is_a_millibar_and_29_92_inches_of_mercury_are_standard_pressure() {
+        // SI Brochure: 1 hPa = 100 Pa = 1 mbar; the standard altimeter setting
+        // 29.92 inHg is 1013.2 hPa (ICAO Doc 8400; NIST SP 811, B.8: 1 inHg = 3386.389 Pa).
+        assert_eq!(read("950 hPa", Dim::Pressure).unwrap().si, 95_000.0);
+        assert_eq!(read("950 mbar", Dim::Pressure).unwrap().si, 95_000.0);
+        let std = read("29.92 inHg", Dim::Pressure).unwrap().si;
+        assert!((std - 101_320.8).abs() < 0.1, "{std}");
     }
 
     #[test]

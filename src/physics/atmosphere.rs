@@ -1,4 +1,8 @@
 //! The ISA troposphere (ISO 2533:1975; U.S. Standard Atmosphere 1976), source `isa`.
+//!
+//! A sheet's `conditions.altitude` is read as a pressure altitude: the height
+//! whose ISA pressure is taken. A stated station pressure replaces that
+//! pressure ([`at_pressure`]); gravity always comes from the stated height.
 
 use uom::si::f64::{Acceleration, Length, MassDensity, Pressure, ThermodynamicTemperature};
 use uom::si::{
@@ -46,6 +50,34 @@ pub fn isa(altitude: Length, temperature: Option<ThermodynamicTemperature>) -> A
         pressure: Pressure::new::<pascal>(p),
         density: MassDensity::new::<kilogram_per_cubic_meter>(rho),
         gravity: gravity(altitude),
+    }
+}
+
+/// Pressure altitude, the ISA height of a pressure:
+/// h = (T0 / L) (1 - (p / p0)^(R L / g0)) (`isa`).
+pub fn pressure_altitude(pressure: Pressure) -> Length {
+    let ratio = pressure.get::<pascal>() / P0_PA;
+    Length::new::<meter>(T0_K / LAPSE_K_PER_M * (1.0 - ratio.powf(R_AIR * LAPSE_K_PER_M / G0)))
+}
+
+/// The air at a station pressure p: density rho = p / (R T) at the stated
+/// temperature, else the ISA temperature at the pressure altitude of p;
+/// gravity at the stated height (`isa`).
+pub fn at_pressure(
+    pressure: Pressure,
+    temperature: Option<ThermodynamicTemperature>,
+    height: Length,
+) -> Air {
+    let p = pressure.get::<pascal>();
+    let t = temperature.map_or_else(
+        || isa_temperature(pressure_altitude(pressure)).get::<kelvin>(),
+        |t| t.get::<kelvin>(),
+    );
+    Air {
+        temperature: ThermodynamicTemperature::new::<kelvin>(t),
+        pressure,
+        density: MassDensity::new::<kilogram_per_cubic_meter>(p / (R_AIR * t)),
+        gravity: gravity(height),
     }
 }
 
@@ -112,6 +144,44 @@ mod tests {
             Some(ThermodynamicTemperature::new::<degree_celsius>(35.0)),
         );
         assert!((hot.density.get::<kilogram_per_cubic_meter>() - 1.1455).abs() < 5e-4);
+    }
+
+    fn pa(v: f64) -> Pressure {
+        Pressure::new::<pascal>(v)
+    }
+
+    #[test]
+    fn a_station_pressure_from_the_table_gives_the_table_height_and_density() {
+        // ISO 2533:1975 / U.S. Standard Atmosphere 1976: 1000 m -> 89 875 Pa, 1.1117 kg/m^3;
+        // 2000 m -> 79 495 Pa, 1.0066 kg/m^3.
+        for (p, h, rho) in [(89_875.0, 1000.0, 1.1117), (79_495.0, 2000.0, 1.0066)] {
+            let hp = pressure_altitude(pa(p)).get::<meter>();
+            assert!((hp - h).abs() < 1.0, "{p} Pa: {hp} m");
+            let air = at_pressure(pa(p), None, Length::new::<meter>(h));
+            let d = air.density.get::<kilogram_per_cubic_meter>();
+            assert!((d - rho).abs() < 2e-4, "{p} Pa: {d}");
+            assert!((air.temperature.get::<kelvin>() - (288.15 - 0.0065 * h)).abs() < 0.01);
+        }
+        assert!(pressure_altitude(pa(P0_PA)).get::<meter>().abs() < 1e-9);
+    }
+
+    #[test]
+    fn a_stated_temperature_sets_the_density_at_a_station_pressure() {
+        // Ideal gas law, worked by hand: 950 hPa at 30 degC gives
+        // rho = 95000 / (287.053 x 303.15) = 1.0917 kg/m^3.
+        let air = at_pressure(
+            pa(95_000.0),
+            Some(ThermodynamicTemperature::new::<degree_celsius>(30.0)),
+            Length::new::<meter>(0.0),
+        );
+        assert!((air.density.get::<kilogram_per_cubic_meter>() - 1.0917).abs() < 1e-4);
+    }
+
+    #[test]
+    fn gravity_at_a_station_pressure_comes_from_the_stated_height() {
+        // isa: g = g0 (r / (r + h))^2, 9.7974 m/s^2 at 3000 m whatever the pressure.
+        let air = at_pressure(pa(101_325.0), None, Length::new::<meter>(3000.0));
+        assert!((air.gravity.get::<meter_per_second_squared>() - 9.7974).abs() < 1e-3);
     }
 
     #[test]

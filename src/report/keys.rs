@@ -56,3 +56,16 @@ pub const ACAI_ROTORS_LOST: [&str; 4] = [
     ACAI_THREE_ROTORS_LOST,
     ACAI_FOUR_ROTORS_LOST,
 ];
+
+// sheet-consistency
+pub const BATTERY_MASS_SHARE: &str = "battery_mass_share";
+pub const MOTORS_AND_PACK_SHARE: &str = "motors_and_pack_share";
+pub const PARTS_MASS_SHARE: &str = "parts_mass_share";
+pub const PROP_DIAMETER: &str = "prop_diameter";
+pub const CLASS_PROP_SMALLEST: &str = "class_prop_smallest";
+pub const CLASS_PROP_LARGEST: &str = "class_prop_largest";
+pub const ROTOR_SPACING: &str = "rotor_spacing";
+pub const ROTOR_OVERLAP: &str = "rotor_overlap";
+pub const ROTOR_REACH_LENGTH: &str = "rotor_reach_length";
+pub const ROTOR_REACH_WIDTH: &str = "rotor_reach_width";
+pub const PRESSURE_ALTITUDE: &str = "pressure_altitude";

@@ -172,6 +172,9 @@ pub struct Report {
     pub title: String,
     pub verdict: Verdict,
     pub findings: Vec<Finding>,
+    /// The dotted paths of the fields the sheet gave that no rule reads
+    /// (`rules::fields`), sorted by path; always present, maybe empty.
+    pub unused: Vec<String>,
     pub cautions: &'static [&'static str],
     pub engine: &'static str,
 }
@@ -193,9 +196,16 @@ impl Report {
             title,
             verdict: Verdict::worst(findings.iter().map(|f| f.verdict)),
             findings,
+            unused: Vec::new(),
             cautions: &CAUTIONS,
             engine: ENGINE,
         }
+    }
+
+    /// The report with the list of sheet fields that no rule read.
+    pub fn with_unused(mut self, unused: Vec<String>) -> Report {
+        self.unused = unused;
+        self
     }
 
     pub fn finding(&self, rule: &str) -> Option<&Finding> {
@@ -257,6 +267,8 @@ mod tests {
         assert_eq!(v["findings"][0]["figures"][0]["tier"], "typical");
         assert!(v["findings"][0]["figures"][1].get("tier").is_none());
         assert_eq!(v["cautions"].as_array().unwrap().len(), 4);
+        // `unused` is always there, an empty list when every field was read.
+        assert_eq!(v["unused"], serde_json::json!([]));
         assert!(v["engine"].as_str().unwrap().starts_with("liftaudit "));
     }
 }

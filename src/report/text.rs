@@ -82,6 +82,13 @@ pub fn render_text(report: &Report, color: bool) -> String {
         ),
         report.verdict.meaning()
     );
+    if !report.unused.is_empty() {
+        let _ = writeln!(
+            s,
+            "Given but used by no check: {}",
+            report.unused.join(", ")
+        );
+    }
     for f in &report.findings {
         let _ = writeln!(s);
         let _ = writeln!(

@@ -4,18 +4,50 @@
 use std::borrow::Cow;
 
 use uom::si::f64::{Area, Force, Length};
-use uom::si::length::millimeter;
+use uom::si::length::{meter, millimeter};
+use uom::si::pressure::hectopascal;
+use uom::si::thermodynamic_temperature::degree_celsius;
 
 use crate::catalog::tiers::COAXIAL_INTERFERENCE;
 use crate::claim::{Claim, Layout};
 use crate::physics::atmosphere::{self, Air};
 use crate::physics::rotor;
-use crate::report::{Figure, Verdict};
+use crate::report::{Figure, Sig3, Verdict};
 use crate::tier::Tier;
 
-/// The air the claim flies in: ISA at the stated altitude and temperature.
+/// The air the claim flies in: at the stated station pressure when there is
+/// one, else the ISA pressure at the stated (pressure) altitude; at the stated
+/// temperature, else the ISA one; gravity at the stated altitude (`isa`).
 pub fn air(claim: &Claim) -> Air {
-    atmosphere::isa(claim.conditions.altitude, claim.conditions.temperature)
+    let c = &claim.conditions;
+    match c.pressure {
+        Some(p) => atmosphere::at_pressure(p, c.temperature, c.altitude),
+        None => atmosphere::isa(c.altitude, c.temperature),
+    }
+}
+
+/// Where the claim's air comes from, in words for a finding's assumptions:
+/// the station pressure, or the ISA pressure at the stated pressure altitude;
+/// the temperature, stated or the ISA one; the height gravity is taken at.
+pub fn air_basis(claim: &Claim, air: &Air) -> String {
+    let c = &claim.conditions;
+    let celsius = air.temperature.get::<degree_celsius>();
+    let temperature = match c.temperature {
+        Some(_) => format!("{} degC as stated", Sig3(celsius)),
+        None => format!("{} degC, the ISA temperature there", Sig3(celsius)),
+    };
+    let height = Sig3(c.altitude.get::<meter>());
+    match c.pressure {
+        Some(p) => format!(
+            "station pressure {} hPa (pressure altitude {} m), {temperature}; gravity at {height} m",
+            Sig3(p.get::<hectopascal>()),
+            Sig3(atmosphere::pressure_altitude(p).get::<meter>()),
+        ),
+        None => format!(
+            "ISA pressure at the pressure altitude of {height} m ({} hPa), {temperature}; gravity at {height} m",
+            Sig3(air.pressure.get::<hectopascal>()),
+        ),
+    }
 }
 
 /// Weight W = m g with the local gravity (`isa`).
@@ -162,6 +194,34 @@ mod tests {
         }
         let x8 = rotors(&format!("count = 8\nlayout = \"custom\"\n{at}"));
         assert_eq!(paired_rotors(&x8), 8);
+    }
+
+    #[test]
+    fn the_air_is_taken_at_the_station_pressure_when_the_sheet_gives_one() {
+        // ISA (ISO 2533): 1000 m has 898.75 hPa and 8.5 degC (281.65 K), density 1.1117 kg/m^3.
+        let isa = rotors("count = 4\n[conditions]\naltitude = \"1000 m\"");
+        let a = air(&isa);
+        assert!(
+            (a.density
+                .get::<uom::si::mass_density::kilogram_per_cubic_meter>()
+                - 1.1117)
+                .abs()
+                < 5e-4
+        );
+        assert_eq!(
+            air_basis(&isa, &a),
+            "ISA pressure at the pressure altitude of 1000 m (899 hPa), 8.50 degC, the ISA temperature there; gravity at 1000 m"
+        );
+        // The same pressure stated at sea level gives the same air, and gravity at 0 m:
+        // g0 = 9.80665 m/s^2 against 9.8036 at 1000 m (isa, inverse square).
+        let station = rotors("count = 4\n[conditions]\npressure = \"898.75 hPa\"");
+        let b = air(&station);
+        assert!((b.density - a.density).abs().value < 1e-4);
+        assert!(b.gravity > a.gravity);
+        assert_eq!(
+            air_basis(&station, &b),
+            "station pressure 899 hPa (pressure altitude 1000 m), 8.50 degC, the ISA temperature there; gravity at 0 m"
+        );
     }
 
     #[test]

@@ -5,7 +5,9 @@
 pub mod common;
 pub mod control_authority;
 pub mod energy_budget;
+pub mod fields;
 pub mod sensing;
+pub mod sheet_consistency;
 pub mod thrust_margin;
 pub mod tilt_equilibrium;
 
@@ -32,8 +34,10 @@ macro_rules! rule {
     };
 }
 
-/// Every rule, in report order.
+/// Every rule, in report order: the sheet against itself first, so that a
+/// reviewer meets a careless or nonsense sheet before the physics built on it.
 pub const REGISTRY: &[Rule] = &[
+    rule!(sheet_consistency),
     rule!(thrust_margin),
     rule!(tilt_equilibrium),
     rule!(energy_budget),
@@ -47,6 +51,7 @@ pub fn run_all(claim: &Claim) -> Report {
         claim.title.clone(),
         REGISTRY.iter().map(|r| (r.check)(claim)).collect(),
     )
+    .with_unused(fields::unused(claim))
 }
 
 /// [`run_all`], and the top view of the rotors that the control-authority
@@ -66,5 +71,6 @@ pub fn run_all_with_layout(claim: &Claim) -> (Report, Option<control_authority::
             }
         })
         .collect();
-    (Report::new(claim.title.clone(), findings), layout)
+    let report = Report::new(claim.title.clone(), findings).with_unused(fields::unused(claim));
+    (report, layout)
 }

@@ -254,6 +254,8 @@ pub struct VerdictPage<'a> {
     pub source: Option<&'a str>,
     pub verdict: VerdictView,
     pub summary: String,
+    /// The sheet fields no check read, named under the verdict.
+    pub unused: &'a [String],
     pub findings: Vec<FindingView<'a>>,
     pub drawings: Vec<Drawing>,
     pub tiers: [&'static str; 3],
@@ -276,6 +278,7 @@ impl<'a> VerdictPage<'a> {
             source: claim.source.as_deref(),
             verdict: VerdictView::of(report.verdict),
             summary: summary(report),
+            unused: &report.unused,
             findings: report.findings.iter().map(FindingView::of).collect(),
             drawings: figures::all(report, claim, layout),
             tiers: Tier::ALL.map(|t| t.label()),
@@ -442,6 +445,36 @@ mod tests {
             without_verdict_word("impossible on every count", Verdict::Impossible),
             "impossible on every count"
         );
+    }
+
+    #[test]
+    fn the_page_names_the_unused_fields_under_the_verdict_and_only_when_there_are_some() {
+        let claim = crate::claim::demo::find("classroom-quad")
+            .and_then(|d| crate::claim::parse_any(d.text).ok())
+            .unwrap();
+        let report = crate::rules::run_all(&claim);
+        let downloads = || Downloads {
+            demo: None,
+            sheet: String::new(),
+            note: None,
+        };
+        let unused = report
+            .clone()
+            .with_unused(vec!["craft.colour".into(), "rotors.blades".into()]);
+        let page = VerdictPage::new(&unused, &claim, None, downloads())
+            .render()
+            .unwrap();
+        let list = "used by no check, so they change nothing above: <code>craft.colour</code>, <code>rotors.blades</code>.</p>";
+        assert!(page.contains(list), "the unused list is missing");
+        // Under the verdict: after the summary, before the first finding.
+        let at = page.find(list).unwrap();
+        assert!(page.find("class=\"summary\"").unwrap() < at);
+        assert!(at < page.find("class=\"panel finding").unwrap());
+        let none = report.with_unused(Vec::new());
+        let page = VerdictPage::new(&none, &claim, None, downloads())
+            .render()
+            .unwrap();
+        assert!(!page.contains("id=\"unused\""));
     }
 
     #[test]
