@@ -391,7 +391,7 @@ pub fn acai(b: &Matrix4xX<f64>, lo: &[f64], hi: &[f64], g: Vector4<f64>) -> f64 
         for j in i + 1..m {
             for k in j + 1..m {
                 if let Some(xi) = face_normal(&gens[i].0, &gens[j].0, &gens[k].0) {
-                    min = min.min(value(&xi));
+                    min = least(min, value(&xi));
                     faces += 1;
                 }
             }
@@ -409,7 +409,7 @@ pub fn acai(b: &Matrix4xX<f64>, lo: &[f64], hi: &[f64], g: Vector4<f64>) -> f64 
         if let Some((sigma, u)) = svd(&gen_matrix) {
             let scale = sigma.first().copied().unwrap_or(0.0);
             let rank = sigma.iter().filter(|&&v| v > TOL * scale).count();
-            min = u[rank..].iter().map(value).fold(min, f64::min);
+            min = u[rank..].iter().map(value).fold(min, least);
         }
     }
     if !min.is_finite() {
@@ -422,6 +422,16 @@ pub fn acai(b: &Matrix4xX<f64>, lo: &[f64], hi: &[f64], g: Vector4<f64>) -> f64 
         0.0
     } else {
         min
+    }
+}
+
+/// The lesser of two face values, NaN if either is (`f64::min` would drop a NaN
+/// face silently and so overstate the index).
+fn least(a: f64, b: f64) -> f64 {
+    if a.is_nan() || b.is_nan() {
+        f64::NAN
+    } else {
+        a.min(b)
     }
 }
 
@@ -514,7 +524,7 @@ impl Faces {
             .filter(|f| f.spanned.iter().all(|&j| half[j].1))
         {
             let support: f64 = f.dots.iter().zip(&half).map(|(d, r)| d * r.0).sum();
-            min = min.min(support - f.xi.dot(&offset).abs());
+            min = least(min, support - f.xi.dot(&offset).abs());
             faces += 1;
         }
         if faces == 0 {
@@ -528,6 +538,9 @@ impl Faces {
                 .unzip();
             let scaled = Matrix4xX::from_fn(b.ncols(), |r, c| b[(r, c)] * scale[c]);
             return acai(&scaled, &lo, &hi, g);
+        }
+        if !min.is_finite() {
+            return f64::NAN;
         }
         // Snap round-off to the exact zero of a hover point on a face (e.g. a lost rotor).
         let size: f64 = (0..b.ncols())
@@ -890,6 +903,21 @@ mod tests {
             assert!((v / s - 1.4861).abs() < 1e-3, "x{s}: {v}");
             assert_eq!(hover_acai(&hex, &hover, &[2]), 0.0, "x{s}");
         }
+    }
+
+    #[test]
+    fn an_index_beyond_what_f64_holds_is_nan_never_a_number_that_passes() {
+        // du-2015 hexacopter with every force 1e308 / 6.125: by the scaling above the
+        // index would be 1.4861 x that, 2.43e307, but the set's centre, six columns of
+        // half thrust, overflows f64; the answer must then be NaN (the rule says it
+        // cannot assess), not a face value that skipped the overflowing faces.
+        let b = du_matrix([1.0, -1.0, 1.0, -1.0, 1.0, -1.0]);
+        let s = 1e308 / 6.125;
+        let g = Vector4::new(1.535 * 9.80 * s, 0.0, 0.0, 0.0);
+        let v = acai(&b, &[0.0; 6], &[1e308; 6], g);
+        assert!(v.is_nan() || (v / (1.4861 * s) - 1.0).abs() < 1e-3, "{v}");
+        assert!(least(1.0, f64::NAN).is_nan() && least(f64::NAN, 1.0).is_nan());
+        assert_eq!(least(1.0, -2.0), -2.0);
     }
 
     #[test]

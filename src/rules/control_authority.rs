@@ -80,10 +80,9 @@ pub enum Margins {
     },
 }
 
-/// The rule's worked solution, handed on with the report: the drawings of the
-/// rotors and of the worst rotor loss read it rather than work it out again.
+/// What the rule reads from a sheet, in its own terms.
 #[derive(Debug, Clone, PartialEq)]
-pub struct Analysis {
+pub struct Givens {
     /// The rotors in body axes ([`geometry::placements`]), tilts holding `held_tilt`.
     pub placements: Vec<Placement>,
     pub diameter: Length,
@@ -94,6 +93,39 @@ pub struct Analysis {
     pub held_tilt: Angle,
     /// Rotors the craft is said to survive losing.
     pub claimed: usize,
+}
+
+impl Givens {
+    /// The givens of a sheet, or the fields it would need to give.
+    pub fn of(claim: &Claim) -> Result<Givens, &'static str> {
+        let r = &claim.rotors;
+        let Some(placements) = geometry::placements(r) else {
+            return Err(match r.layout {
+                None | Some(Layout::Custom) => "the rotor layout (rotors.layout with rotors.arm, or layout = \"custom\" with [[rotors.at]] positions)",
+                Some(_) => "the arm length (rotors.arm)",
+            });
+        };
+        let Some((diameter, _)) = common::rotor_diameter(claim) else {
+            return Err("the rotor diameter (rotors.diameter) or a motor class (rotors.motor)");
+        };
+        let air = common::air(claim);
+        let held_tilt = geometry::held_body_tilt(claim);
+        Ok(Givens {
+            placements: geometry::holding(placements, held_tilt),
+            diameter,
+            weight: common::weight(claim, &air),
+            thrust: thrust_margin::estimate(claim, &air).map(|e| e.available),
+            held_tilt,
+            claimed: claim.claim.survives_rotor_failure as usize,
+        })
+    }
+}
+
+/// The rule's worked solution, handed on with the report: the drawings of the
+/// rotors and of the worst rotor loss read it rather than work it out again.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Analysis {
+    pub givens: Givens,
     /// Which axes the actuators command.
     pub authority: Authority,
     pub margins: Margins,
@@ -224,29 +256,23 @@ fn lost_sets(placements: &[Placement], size: usize) -> Option<Vec<Vec<usize>>> {
 }
 
 /// The ACAI intact and with rotors lost, as far as the sheet and the search allow.
-fn margins(
-    placements: &[Placement],
-    weight: Force,
-    diameter: Length,
-    thrust: Option<PerTier<Force>>,
-    claimed: usize,
-    authority: &Authority,
-) -> Margins {
+fn margins(g: &Givens, authority: &Authority) -> Margins {
+    let placements = &g.placements[..];
     if authority.rank < 4 {
         return Margins::AxesLacking;
     }
-    let Some(thrust) = thrust else {
+    let Some(thrust) = g.thrust else {
         return Margins::NoThrust;
     };
     if !affordable(placements, 3) {
         return Margins::TooManyActuators;
     }
-    let searched = failure_search(claimed, placements.len());
+    let searched = failure_search(g.claimed, placements.len());
     let sets = lost_sets(placements, searched);
-    if claimed > searched || (claimed > 0 && sets.is_none()) {
+    if g.claimed > searched || (g.claimed > 0 && sets.is_none()) {
         return Margins::FailuresBeyondSearch;
     }
-    let search = Search::new(placements, weight, diameter, thrust);
+    let search = Search::new(placements, g.weight, g.diameter, thrust);
     let intact = search.failure(Vec::new());
     let searched = if sets.is_some() { searched } else { 0 };
     let failures: Vec<Failure> = sets
@@ -267,31 +293,16 @@ fn margins(
 
 /// The worked solution, or the fields the sheet would need for it.
 pub fn solve(claim: &Claim) -> Result<Analysis, &'static str> {
-    let r = &claim.rotors;
-    // Givens: the rotors, their size, the weight, their thrust, the tilt they hold.
-    let Some(placements) = geometry::placements(r) else {
-        return Err(match r.layout {
-            None | Some(Layout::Custom) => "the rotor layout (rotors.layout with rotors.arm, or layout = \"custom\" with [[rotors.at]] positions)",
-            Some(_) => "the arm length (rotors.arm)",
-        });
-    };
-    let Some((diameter, _)) = common::rotor_diameter(claim) else {
-        return Err("the rotor diameter (rotors.diameter) or a motor class (rotors.motor)");
-    };
-    let air = common::air(claim);
-    let weight = common::weight(claim, &air);
-    let held_tilt = geometry::held_body_tilt(claim);
-    let placements = geometry::holding(placements, held_tilt);
-    let thrust = thrust_margin::estimate(claim, &air).map(|e| e.available);
-    let claimed = claim.claim.survives_rotor_failure as usize;
+    let givens = Givens::of(claim)?;
+    let g = &givens;
 
     // 1. Rank: which axes the actuators command at all (at any hover thrust: 1 N).
-    let k = diameter * REACTIVE_TORQUE.at(Tier::Typical);
+    let k = g.diameter * REACTIVE_TORQUE.at(Tier::Typical);
     let unit = Force::new::<newton>(1.0);
-    let authority = control::authority(&control::effectiveness(&placements, unit, k).matrix);
+    let authority = control::authority(&control::effectiveness(&g.placements, unit, k).matrix);
 
     // 2. ACAI intact and with rotors lost, per tier, against the margin of each tier.
-    let margins = margins(&placements, weight, diameter, thrust, claimed, &authority);
+    let margins = margins(g, &authority);
 
     // 3. The verdict: the first tier at which the intact craft or a claimed loss fails.
     let (fails_at, verdict) = match &margins {
@@ -299,7 +310,7 @@ pub fn solve(claim: &Claim) -> Result<Analysis, &'static str> {
         Margins::Searched {
             intact, failures, ..
         } => {
-            let claimed_sets = || failures.iter().filter(|f| f.lost.len() <= claimed);
+            let claimed_sets = || failures.iter().filter(|f| f.lost.len() <= g.claimed);
             let fails_at =
                 common::first_failure(|t| intact.passes(t) && claimed_sets().all(|f| f.passes(t)));
             (fails_at, Verdict::failing_at(fails_at))
@@ -307,12 +318,7 @@ pub fn solve(claim: &Claim) -> Result<Analysis, &'static str> {
         _ => (None, Verdict::NotAssessed),
     };
     Ok(Analysis {
-        placements,
-        diameter,
-        weight,
-        thrust,
-        held_tilt,
-        claimed,
+        givens,
         authority,
         margins,
         fails_at,
@@ -337,7 +343,7 @@ const NEEDS_THRUST: &str = "a per-rotor thrust (rotors.max_thrust), a motor clas
 
 /// The finding of an analysis: figures, headline, what it would take, assumptions.
 pub fn describe(claim: &Claim, an: &Analysis) -> Finding {
-    let n = an.placements.len();
+    let n = an.givens.placements.len();
     let a = &an.authority;
     let rank = fixed(
         keys::RANK,
@@ -353,7 +359,7 @@ pub fn describe(claim: &Claim, an: &Analysis) -> Finding {
     assumptions.push(format!(
         "Propeller drag torque per thrust {} of the rotor diameter ({} mm); {}.",
         REACTIVE_TORQUE.values,
-        Sig3(an.diameter.get::<millimeter>()),
+        Sig3(an.givens.diameter.get::<millimeter>()),
         REACTIVE_TORQUE.basis,
     ));
     assumptions.push(
@@ -405,7 +411,7 @@ pub fn describe(claim: &Claim, an: &Analysis) -> Finding {
             let mut f = Finding::not_assessed(ID, "a craft small enough to search every combination of lost rotors (up to four lost, about 16 rotors)");
             f.headline = format!(
                 "Not assessed: the claim to survive {} lost rotors needs more combinations searched than this screen does.",
-                an.claimed,
+                an.givens.claimed,
             );
             f.would_take = SEARCH_LIMIT.to_string();
             f.figures.push(rank);
@@ -426,8 +432,8 @@ pub fn describe(claim: &Claim, an: &Analysis) -> Finding {
             searched,
         } => (intact, failures, *searched),
     };
-    let claimed = an.claimed;
-    let thrust = an.thrust.unwrap_or_default();
+    let claimed = an.givens.claimed;
+    let thrust = an.givens.thrust.unwrap_or_default();
 
     // The rank, the margin, and per tier the ACAI and the worst of each failure size.
     let mut figures = Vec::with_capacity(2 + 3 * (1 + LOST_KEYS.len()));
@@ -463,7 +469,7 @@ pub fn describe(claim: &Claim, an: &Analysis) -> Finding {
 
     // The words.
     let at = |t: Tier| Sig3(intact.acai[t]);
-    let lifts = |t: Tier| thrust[t] * n as f64 >= an.weight;
+    let lifts = |t: Tier| thrust[t] * n as f64 >= an.givens.weight;
     let claimed_sets = || failures.iter().filter(|f| f.lost.len() <= claimed);
     let first_bad_set = |t: Tier| claimed_sets().find(|f| !f.passes(t));
     let intact_fails = |t: Tier| !intact.passes(t);
@@ -572,17 +578,19 @@ fn held_tilt_words(claim: &Claim, an: &Analysis) -> Option<HeldWords> {
     // Degrees as a person reads them: 30 deg less 20 deg is 10, not 9.999999.
     let deg = |a: Angle| Sig3((a.get::<degree>() * 1e6).round() / 1e6);
     let range = claim.rotors.tilt_range?;
-    if an.held_tilt.get::<degree>() <= 0.0 || !an.placements.iter().any(|p| p.tilt.is_some()) {
+    if an.givens.held_tilt.get::<degree>() <= 0.0
+        || !an.givens.placements.iter().any(|p| p.tilt.is_some())
+    {
         return None;
     }
-    let body = claim.claim.hover_tilt.unwrap_or(an.held_tilt);
-    let back = (range - an.held_tilt).max(Angle::new::<degree>(0.0));
-    let forth = (range + an.held_tilt).min(Angle::new::<degree>(90.0));
+    let body = claim.claim.hover_tilt.unwrap_or(an.givens.held_tilt);
+    let back = (range - an.givens.held_tilt).max(Angle::new::<degree>(0.0));
+    let forth = (range + an.givens.held_tilt).min(Angle::new::<degree>(90.0));
     Some(HeldWords {
         assumption: format!(
             "The tilting rotors hold the claimed {} deg body tilt by tilting back up to {} deg each (as the tilt-equilibrium rule counts it); control deflections are counted from there, so {} deg of the {} deg range is left one way ({} deg the other). Their thrust is taken as vertical and the tilt columns as at a level hover, which errs generous for large deflections.",
             deg(body),
-            deg(an.held_tilt),
+            deg(an.givens.held_tilt),
             deg(back),
             deg(range),
             deg(forth),
@@ -590,7 +598,7 @@ fn held_tilt_words(claim: &Claim, an: &Analysis) -> Option<HeldWords> {
         headline: format!(
             "Holding the {} deg body tilt takes {} deg of the rotors' {} deg tilt range, leaving {} deg for control one way.",
             deg(body),
-            deg(an.held_tilt),
+            deg(an.givens.held_tilt),
             deg(range),
             deg(back),
         ),
@@ -888,8 +896,8 @@ mod tests {
         let (finding, an) = checked(&quad);
         let an = an.unwrap();
         // Plane geometry: rotor 1 at 45 deg, x = 225 / sqrt 2 = 159.1 mm, y negative (REP 103).
-        assert!((an.placements[0].x.get::<millimeter>() - 159.1).abs() < 0.1);
-        assert!(an.placements[0].y.get::<millimeter>() < 0.0);
+        assert!((an.givens.placements[0].x.get::<millimeter>() - 159.1).abs() < 0.1);
+        assert!(an.givens.placements[0].y.get::<millimeter>() < 0.0);
         assert_eq!(an.authority.rank, 4);
         assert_eq!(an.verdict, finding.verdict);
         // du-2015: a quadrotor that loses any rotor has ACAI < 0; the drawing's worst

@@ -39,7 +39,7 @@ pub fn plan<'a>(claim: &Claim, control: Option<&'a Analysis>) -> Option<Plan<'a>
     let diameter = rotors.diameter.or(rotors.motor.map(|m| m.usual_prop()));
     if let Some(an) = control {
         return Some(Plan {
-            rotors: Cow::Borrowed(&an.placements),
+            rotors: Cow::Borrowed(&an.givens.placements),
             diameter,
             arm_assumed: false,
             lacking: &an.authority.lacking,
@@ -80,7 +80,7 @@ mod tests {
             };
             let plan = plan(&claim, Some(an)).unwrap();
             assert!(matches!(plan.rotors, Cow::Borrowed(_)), "{}", d.name);
-            assert_eq!(plan.rotors.len(), an.placements.len());
+            assert_eq!(plan.rotors.len(), an.givens.placements.len());
             assert_eq!(plan.lacking, an.authority.lacking.as_slice());
         }
     }
