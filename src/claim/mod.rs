@@ -250,11 +250,9 @@ pub enum Mount {
     Tilting,
 }
 
-#[derive(Debug, Clone, Copy, PartialEq, Eq)]
-pub enum Spin {
-    Cw,
-    Ccw,
-}
+/// The sense a rotor turns, seen from above: plain geometry, defined beside the
+/// control analysis that reads it.
+pub use crate::physics::control::Spin;
 
 /// A rotor placed by hand (`layout = "custom"`).
 #[derive(Debug, Clone, PartialEq)]

@@ -254,9 +254,19 @@ const UNITS: &[(&[&str], Unit)] = &[
         &["ozf"],
         unit(Dim::Force, OUNCE * STANDARD_GRAVITY, "ounce-force"),
     ),
-    (&["Pa", "pascal", "pascals"], unit(Dim::Pressure, 1.0, "pascal")),
     (
-        &["hPa", "hectopascal", "hectopascals", "mbar", "millibar", "millibars"],
+        &["Pa", "pascal", "pascals"],
+        unit(Dim::Pressure, 1.0, "pascal"),
+    ),
+    (
+        &[
+            "hPa",
+            "hectopascal",
+            "hectopascals",
+            "mbar",
+            "millibar",
+            "millibars",
+        ],
         unit(Dim::Pressure, 100.0, "hectopascal"),
     ),
     (

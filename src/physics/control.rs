@@ -15,12 +15,26 @@
 use nalgebra::{DVector, Matrix3, Matrix4, Matrix4xX, Vector3, Vector4, SVD};
 use serde::Serialize;
 use uom::si::f64::{Angle, Force, Length, Torque};
-use uom::si::{force::newton, length::meter, torque::newton_meter};
-
-use crate::claim::{Layout, Mount, Rotors, Spin};
+use uom::si::{angle::radian, force::newton, length::meter, torque::newton_meter};
 
 /// Relative tolerance below which a singular value, a face normal or an ACAI counts as zero.
 const TOL: f64 = 1e-9;
+
+/// The sense a rotor turns, seen from above.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Spin {
+    Cw,
+    Ccw,
+}
+
+impl Spin {
+    pub fn id(self) -> &'static str {
+        match self {
+            Spin::Cw => "cw",
+            Spin::Ccw => "ccw",
+        }
+    }
+}
 
 /// One rotor as placed on the airframe.
 #[derive(Debug, Clone, Copy, PartialEq)]
@@ -34,11 +48,48 @@ pub struct Placement {
     pub tilt: Option<Tilt>,
 }
 
-/// A tilt actuator: a unit hinge axis in body axes and the tilt either way from hover.
+/// A tilt actuator: a unit hinge axis in body axes, the tilt either way from
+/// the body's vertical, and the tilt it holds at hover (0 unless it holds a body tilt).
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub struct Tilt {
     pub hinge: [f64; 3],
     pub range: Angle,
+    pub held: Angle,
+}
+
+impl Tilt {
+    /// A tilt actuator that holds none of its range at hover.
+    pub fn new(hinge: [f64; 3], range: Angle) -> Tilt {
+        Tilt {
+            hinge,
+            range,
+            held: Angle::new::<radian>(0.0),
+        }
+    }
+
+    /// The deflections left from the held tilt, as sines (the tilt columns' unit):
+    /// sin(-range - held) to sin(range - held), each within a quarter turn (`statics`).
+    pub fn bounds(&self) -> (f64, f64) {
+        let quarter = std::f64::consts::FRAC_PI_2;
+        let (range, held) = (self.range.get::<radian>(), self.held.get::<radian>());
+        let lo = (-range - held).clamp(-quarter, quarter).sin();
+        let hi = (range - held).clamp(-quarter, quarter).sin();
+        (lo.min(hi), hi)
+    }
+}
+
+/// The hinge angle that brings a rotor's thrust nearest the vertical when the body
+/// is pitched nose down by `pitch` and the rotor may tilt back up to `up_to`:
+/// atan2(-sin(pitch) h_y, cos(pitch)), within +-up_to (`statics`).
+pub fn hold_angle(hinge: [f64; 3], pitch: Angle, up_to: Angle) -> Angle {
+    let p = pitch.get::<radian>();
+    let limit = up_to.get::<radian>().abs();
+    let held = (-p.sin() * hinge[1]).atan2(p.cos());
+    Angle::new::<radian>(if held.is_finite() {
+        held.clamp(-limit, limit)
+    } else {
+        0.0
+    })
 }
 
 /// The four axes a hovering craft must command, in matrix row order.
@@ -64,116 +115,36 @@ impl Axis {
     }
 }
 
-/// The tilt either way of a tricopter's yaw servo when the sheet gives no `tilt_range`.
-pub fn tri_servo_range() -> Angle {
-    use crate::catalog::tiers::{Tier, TRI_SERVO_RANGE};
-    Angle::new::<uom::si::angle::degree>(TRI_SERVO_RANGE.at(Tier::Typical))
+/// A 4 x n matrix of the given columns; none gives a matrix of no columns.
+fn of_columns(columns: &[Vector4<f64>]) -> Matrix4xX<f64> {
+    Matrix4xX::from_fn(columns.len(), |r, c| columns[c][r])
 }
 
-/// Where each rotor sits, how it spins and how it tilts, from the layout preset
-/// (with `arm`, `height` and the usual spins or the sheet's `spins`) or from
-/// `[[rotors.at]]` for a custom layout (each `z` measured from the rotor plane
-/// `height`). A tilting mount hinges each rotor about its arm (about body y for
-/// a rotor on the centre, about x for the second of a coaxial pair); a
-/// tricopter's tail rotor always has its yaw servo, hinged about its arm.
-/// `None` when the layout is unknown or a preset needs the arm and has none.
-pub fn placements(rotors: &Rotors) -> Option<Vec<Placement>> {
-    use Spin::{Ccw, Cw};
-    let layout = rotors.layout?;
-    let tilting = rotors.mount == Mount::Tilting;
-    let tilt = |hinge, range: Option<Angle>| {
-        Some(Tilt {
-            hinge,
-            range: range?,
-        })
-    };
-    let h = rotors.height;
-    if layout == Layout::Custom {
-        if rotors.at.is_empty() {
-            return None;
-        }
-        let placed = rotors.at.iter().map(|at| {
-            let hinge = at
-                .tilt_axis
-                .or(tilting.then(|| arm_hinge(at.x, at.y, false)));
-            Placement {
-                x: at.x,
-                y: at.y,
-                z: at.z + h,
-                spin: at.spin,
-                tilt: hinge.and_then(|g| tilt(g, at.tilt_range.or(rotors.tilt_range))),
-            }
-        });
-        return Some(placed.collect());
+/// The Euclidean length of `v`, scaled by its largest entry first so that the
+/// squares neither overflow nor underflow.
+fn length(v: &Vector4<f64>) -> f64 {
+    let big = v.amax();
+    if big > 0.0 && big.is_finite() {
+        big * (v / big).norm()
+    } else {
+        big
     }
-    // Azimuths in degrees, clockwise from the nose seen from above.
-    let ring = |n: usize, first: f64| -> Vec<f64> {
-        (0..n)
-            .map(|i| first + i as f64 * 360.0 / n as f64)
-            .collect()
-    };
-    let (azimuths, arm) = match layout {
-        Layout::Single => (vec![0.0], mm0()),
-        Layout::Coaxial => (vec![0.0; 2], mm0()),
-        Layout::SideBySide => (vec![90.0, 270.0], rotors.arm?),
-        Layout::Tri => (ring(3, 60.0), rotors.arm?),
-        Layout::QuadX => (ring(4, 45.0), rotors.arm?),
-        Layout::QuadPlus => (ring(4, 0.0), rotors.arm?),
-        Layout::Hex => (ring(6, 0.0), rotors.arm?),
-        Layout::Octo => (ring(8, 0.0), rotors.arm?),
-        Layout::Custom => return None,
-    };
-    let spins = match (&rotors.spins, layout) {
-        (Some(s), _) => s.clone(),
-        (None, Layout::Tri) => vec![Cw, Cw, Ccw],
-        (None, _) => (0..azimuths.len()).map(|i| [Cw, Ccw][i % 2]).collect(),
-    };
-    if spins.len() != azimuths.len() {
+}
+
+/// A column scaled to unit length, computed from its largest entry first so that
+/// neither tiny nor huge entries under- or overflow; `None` for a zero column.
+fn direction(c: &Vector4<f64>) -> Option<Vector4<f64>> {
+    let big = c.amax();
+    if !(big > 0.0 && big.is_finite()) {
         return None;
     }
-    let placed = azimuths
-        .iter()
-        .zip(spins)
-        .enumerate()
-        .map(|(i, (az, spin))| {
-            let (x, y) = (arm * az.to_radians().cos(), -arm * az.to_radians().sin());
-            let hinge = arm_hinge(x, y, i == 1);
-            let tri_tail = layout == Layout::Tri && i == 1;
-            Placement {
-                x,
-                y,
-                z: h,
-                spin,
-                tilt: match (tilting, tri_tail) {
-                    (true, _) => tilt(hinge, rotors.tilt_range),
-                    (false, true) => tilt(hinge, rotors.tilt_range.or(Some(tri_servo_range()))),
-                    (false, false) => None,
-                },
-            }
-        });
-    Some(placed.collect())
-}
-
-fn mm0() -> Length {
-    Length::new::<meter>(0.0)
-}
-
-/// The unit hinge along the arm from the centre to (x, y); on the centre, body y
-/// (or x for the `second` rotor of a coaxial pair, making a two-axis gimbal).
-fn arm_hinge(x: Length, y: Length, second: bool) -> [f64; 3] {
-    let (x, y) = (x.get::<meter>(), y.get::<meter>());
-    let r = x.hypot(y);
-    match (r > 0.0, second) {
-        (true, _) => [x / r, y / r, 0.0],
-        (false, false) => [0.0, 1.0, 0.0],
-        (false, true) => [1.0, 0.0, 0.0],
-    }
+    (c / big).try_normalize(0.0)
 }
 
 /// What one column of the effectiveness matrix is: a rotor's thrust or its tilt.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
 pub struct Actuator {
-    /// Index of the rotor in [`placements`] order, from 0.
+    /// Index of the rotor in the placements' order, from 0.
     pub rotor: usize,
     pub tilt: bool,
 }
@@ -185,17 +156,6 @@ pub struct Effectiveness {
     /// per unit sine of tilt.
     pub matrix: Matrix4xX<f64>,
     pub actuators: Vec<Actuator>,
-}
-
-impl Effectiveness {
-    /// The columns of the actuators of rotors not in `lost`.
-    pub fn without(&self, lost: &[usize]) -> Matrix4xX<f64> {
-        let keep: Vec<_> = (0..self.actuators.len())
-            .filter(|&j| !lost.contains(&self.actuators[j].rotor))
-            .map(|j| self.matrix.column(j).into_owned())
-            .collect();
-        Matrix4xX::from_columns(&keep)
-    }
 }
 
 fn sign(spin: Spin) -> f64 {
@@ -240,7 +200,7 @@ pub fn effectiveness(
         }
     }
     Effectiveness {
-        matrix: Matrix4xX::from_columns(&columns),
+        matrix: of_columns(&columns),
         actuators,
     }
 }
@@ -259,26 +219,35 @@ pub struct Authority {
 }
 
 /// Singular values of `m` (padded to four columns, so there are always
-/// four) and its left singular vectors. Up to four columns the matrix is
-/// square and fixed in size, so the decomposition runs without the heap.
+/// four) and its left singular vectors, `None` if an entry is not finite. The
+/// matrix is first divided by its largest entry (which changes neither the
+/// rank nor the singular vectors), so tiny and huge entries decompose alike;
+/// a zero matrix has singular values 0 and the unit vectors. Up to four columns
+/// the matrix is square and fixed in size, so the decomposition runs without the heap.
 fn svd(m: &Matrix4xX<f64>) -> Option<([f64; 4], [Vector4<f64>; 4])> {
     if m.iter().any(|v| !v.is_finite()) {
         return None;
     }
-    if m.ncols() <= 4 {
-        let mut square = Matrix4::zeros();
-        square.columns_mut(0, m.ncols()).copy_from(m);
-        let svd = SVD::try_new(square, true, false, f64::EPSILON, 10_000)?;
-        let u = svd.u?;
-        return Some((
-            std::array::from_fn(|j| svd.singular_values[j]),
-            std::array::from_fn(|j| u.column(j).into_owned()),
-        ));
+    let big = m.amax();
+    if big == 0.0 {
+        return Some(([0.0; 4], std::array::from_fn(|j| Vector4::ith(j, 1.0))));
     }
-    let svd = SVD::try_new(m.clone(), true, false, f64::EPSILON, 10_000)?;
-    let u = svd.u?;
+    let m = m / big;
+    let (sigma, u): (Vec<f64>, Matrix4<f64>) = if m.ncols() <= 4 {
+        let mut square = Matrix4::zeros();
+        square.columns_mut(0, m.ncols()).copy_from(&m);
+        let svd = SVD::try_new(square, true, false, f64::EPSILON, 10_000)?;
+        (svd.singular_values.iter().copied().collect(), svd.u?)
+    } else {
+        let svd = SVD::try_new(m, true, false, f64::EPSILON, 10_000)?;
+        let u = svd.u?;
+        (
+            svd.singular_values.iter().copied().collect(),
+            Matrix4::from_fn(|r, c| u[(r, c)]),
+        )
+    };
     Some((
-        std::array::from_fn(|j| svd.singular_values[j]),
+        std::array::from_fn(|j| sigma.get(j).copied().unwrap_or(0.0) * big),
         std::array::from_fn(|j| u.column(j).into_owned()),
     ))
 }
@@ -310,7 +279,15 @@ fn independent_rows(m: &Matrix4xX<f64>, scale: f64) -> [bool; 4] {
 }
 
 /// Rank of B (SVD, relative tolerance), the axes it cannot command, and why.
+/// Each column is scaled to unit length first: that changes neither the rank nor
+/// which rows depend on which, so the answer does not depend on the units or the
+/// size of any one actuator (a tilt column per newton of a tiny hover thrust counts).
 pub fn authority(b: &Matrix4xX<f64>) -> Authority {
+    let columns: Vec<Vector4<f64>> = b
+        .column_iter()
+        .map(|c| direction(&c.into_owned()).unwrap_or_else(Vector4::zeros))
+        .collect();
+    let b = &of_columns(&columns);
     let Some((sigma, u)) = svd(b) else {
         return Authority {
             rank: 0,
@@ -369,7 +346,7 @@ pub fn combinations(n: usize, k: usize) -> Vec<Vec<usize>> {
     }
 }
 
-/// Unit normal of the span of three columns in R^4 (signed 3x3 minors), if they are independent.
+/// Unit normal of the span of three unit columns in R^4 (signed 3x3 minors), if they are independent.
 fn normal(a: Vector4<f64>, b: Vector4<f64>, c: Vector4<f64>) -> Option<Vector4<f64>> {
     // The rows left when row `skip` is struck out.
     const ROWS: [[usize; 3]; 4] = [[1, 2, 3], [0, 2, 3], [0, 1, 3], [0, 1, 2]];
@@ -378,14 +355,22 @@ fn normal(a: Vector4<f64>, b: Vector4<f64>, c: Vector4<f64>) -> Option<Vector4<f
         Matrix3::from_fn(|i, j| [a, b, c][j][rows[i]]).determinant()
     };
     let n = Vector4::new(minor(0), -minor(1), minor(2), -minor(3));
-    (n.norm() > TOL * a.norm() * b.norm() * c.norm()).then(|| n.normalize())
+    (n.norm() > TOL).then(|| n.normalize())
+}
+
+/// [`normal`] of the three columns each scaled to unit length first (the span is
+/// the same), so the test of independence does not depend on their sizes.
+fn face_normal(a: &Vector4<f64>, b: &Vector4<f64>, c: &Vector4<f64>) -> Option<Vector4<f64>> {
+    normal(direction(a)?, direction(b)?, direction(c)?)
 }
 
 /// ACAI: the signed distance from the hover point `g` to the boundary of the attainable
 /// set {B u : lo <= u <= hi}, min over face normals xi of
 /// sum_j |xi . b_j| (hi_j - lo_j) / 2 - |xi . (g - B (lo + hi) / 2)| (`du-2015`).
 /// Faces are spanned by three independent generators (columns with hi > lo), or,
-/// when the generators span less than R^4, lie across their left null space.
+/// when the generators span less than R^4, lie across their left null space; with no
+/// generator the set is one point and the index minus the hover point's distance to it.
+/// NaN only when the entries are beyond what f64 holds.
 pub fn acai(b: &Matrix4xX<f64>, lo: &[f64], hi: &[f64], g: Vector4<f64>) -> f64 {
     let centre: Vector4<f64> = (0..b.ncols())
         .map(|j| b.column(j) * ((lo[j] + hi[j]) / 2.0))
@@ -405,8 +390,8 @@ pub fn acai(b: &Matrix4xX<f64>, lo: &[f64], hi: &[f64], g: Vector4<f64>) -> f64 
     for i in 0..m {
         for j in i + 1..m {
             for k in j + 1..m {
-                if let Some(xi) = normal(gens[i].0, gens[j].0, gens[k].0) {
-                    min = min.min(value(&xi));
+                if let Some(xi) = face_normal(&gens[i].0, &gens[j].0, &gens[k].0) {
+                    min = least(min, value(&xi));
                     faces += 1;
                 }
             }
@@ -415,21 +400,38 @@ pub fn acai(b: &Matrix4xX<f64>, lo: &[f64], hi: &[f64], g: Vector4<f64>) -> f64 
     // With three independent generators their normals already hold the left null
     // space (rank 3: the one normal; rank 4: none). Only below rank 3 does it take an
     // SVD to find the directions across which the set is flat.
-    if faces == 0 {
-        let gen_matrix =
-            Matrix4xX::from_columns(&gens.iter().map(|(c, r)| c * *r).collect::<Vec<_>>());
+    // With no generator at all the set is the one point `centre`: the hover point
+    // is its distance from it outside (or on it).
+    if gens.is_empty() {
+        min = -length(&offset);
+    } else if faces == 0 {
+        let gen_matrix = of_columns(&gens.iter().map(|(c, r)| c * *r).collect::<Vec<_>>());
         if let Some((sigma, u)) = svd(&gen_matrix) {
             let scale = sigma.first().copied().unwrap_or(0.0);
             let rank = sigma.iter().filter(|&&v| v > TOL * scale).count();
-            min = u[rank..].iter().map(value).fold(min, f64::min);
+            min = u[rank..].iter().map(value).fold(min, least);
         }
     }
+    if !min.is_finite() {
+        // Nothing bounded the index (entries beyond f64): no margin can be claimed.
+        return f64::NAN;
+    }
     // Snap round-off to the exact zero of a hover point on a face (e.g. a lost rotor, `du-2015`).
-    let scale: f64 = gens.iter().map(|(c, r)| c.norm() * r).sum::<f64>() + offset.norm();
+    let scale: f64 = gens.iter().map(|(c, r)| length(c) * r).sum::<f64>() + length(&offset);
     if min.abs() <= TOL * scale {
         0.0
     } else {
         min
+    }
+}
+
+/// The lesser of two face values, NaN if either is (`f64::min` would drop a NaN
+/// face silently and so overstate the index).
+fn least(a: f64, b: f64) -> f64 {
+    if a.is_nan() || b.is_nan() {
+        f64::NAN
+    } else {
+        a.min(b)
     }
 }
 
@@ -470,7 +472,7 @@ impl Faces {
         for i in 0..m {
             for j in i + 1..m {
                 for k in j + 1..m {
-                    if let Some(xi) = normal(col(i), col(j), col(k)) {
+                    if let Some(xi) = face_normal(&col(i), &col(j), &col(k)) {
                         let dots = (0..m).map(|c| xi.dot(&b.column(c)).abs()).collect();
                         faces.push(Face {
                             xi,
@@ -485,7 +487,7 @@ impl Faces {
     }
 
     /// ACAI of hovering at weight W with the rotors in `lost` stopped (thrust 0..0, tilt
-    /// fixed), the others 0..T_max and tilting +-sin(range), linearised at W / n_alive
+    /// fixed), the others 0..T_max and tilting within [`Tilt::bounds`], linearised at W / n_alive
     /// (`du-2015`): the same value as [`acai`] on that matrix and those bounds.
     pub fn hover_acai(&self, placements: &[Placement], hover: &Hover, lost: &[usize]) -> f64 {
         let alive = placements.len() - lost.len().min(placements.len());
@@ -495,14 +497,11 @@ impl Faces {
         // Each column's scale (1 for thrust, the hover share for tilt) and bounds.
         let bounds = |a: &Actuator| {
             let scale = if a.tilt { share } else { 1.0 };
-            let hi = match (lost.contains(&a.rotor), a.tilt) {
-                (true, _) => 0.0,
-                (false, false) => tmax,
-                (false, true) => placements[a.rotor]
-                    .tilt
-                    .map_or(0.0, |t| t.range.sin().value),
+            let (lo, hi) = match (lost.contains(&a.rotor), a.tilt) {
+                (true, _) => (0.0, 0.0),
+                (false, false) => (0.0, tmax),
+                (false, true) => placements[a.rotor].tilt.map_or((0.0, 0.0), |t| t.bounds()),
             };
-            let lo = if a.tilt { -hi } else { 0.0 };
             (scale, lo, hi)
         };
         let g = Vector4::new(hover.weight.get::<newton>(), 0.0, 0.0, 0.0);
@@ -525,7 +524,7 @@ impl Faces {
             .filter(|f| f.spanned.iter().all(|&j| half[j].1))
         {
             let support: f64 = f.dots.iter().zip(&half).map(|(d, r)| d * r.0).sum();
-            min = min.min(support - f.xi.dot(&offset).abs());
+            min = least(min, support - f.xi.dot(&offset).abs());
             faces += 1;
         }
         if faces == 0 {
@@ -540,11 +539,14 @@ impl Faces {
             let scaled = Matrix4xX::from_fn(b.ncols(), |r, c| b[(r, c)] * scale[c]);
             return acai(&scaled, &lo, &hi, g);
         }
+        if !min.is_finite() {
+            return f64::NAN;
+        }
         // Snap round-off to the exact zero of a hover point on a face (e.g. a lost rotor).
         let size: f64 = (0..b.ncols())
-            .map(|j| b.column(j).norm() * half[j].0)
+            .map(|j| length(&b.column(j).into_owned()) * half[j].0)
             .sum::<f64>()
-            + offset.norm();
+            + length(&offset);
         if min.abs() <= TOL * size {
             0.0
         } else {
@@ -571,33 +573,52 @@ mod tests {
     use super::*;
     use uom::si::angle::degree;
 
-    use crate::claim::RotorAt;
-
     fn mm(v: f64) -> Length {
         Length::new::<uom::si::length::millimeter>(v)
     }
 
-    fn rotors(layout: Layout, count: u32, arm: f64) -> Rotors {
-        Rotors {
-            count,
-            layout: Some(layout),
-            arm: Some(mm(arm)),
-            diameter: Some(mm(127.0)),
-            mount: Mount::Fixed,
-            tilt_range: None,
-            height: mm(0.0),
-            motor: None,
-            drive: None,
-            max_thrust: None,
-            max_thrust_from_mass: false,
-            max_power: None,
-            spins: None,
-            at: Vec::new(),
-        }
-    }
-
     fn n(v: f64) -> Force {
         Force::new::<newton>(v)
+    }
+
+    fn deg(v: f64) -> Angle {
+        Angle::new::<degree>(v)
+    }
+
+    /// Rotors on a ring as Du et al. 2015 place them: rotor i at azimuth
+    /// `first` + i 360 / n deg clockwise from the nose, x = arm cos az, y = -arm sin az.
+    fn ring(arm_mm: f64, first: f64, spins: &[Spin]) -> Vec<Placement> {
+        let k = spins.len() as f64;
+        spins
+            .iter()
+            .enumerate()
+            .map(|(i, &spin)| {
+                let az = (first + i as f64 * 360.0 / k).to_radians();
+                Placement {
+                    x: mm(arm_mm * az.cos()),
+                    y: mm(-arm_mm * az.sin()),
+                    z: mm(0.0),
+                    spin,
+                    tilt: None,
+                }
+            })
+            .collect()
+    }
+
+    /// The same rotors raised `z_mm` above the centre of mass, each tilting
+    /// +-`range` deg on a hinge along its arm (the unit vector from the centre to the hub).
+    fn tilting(p: Vec<Placement>, range: f64, z_mm: f64) -> Vec<Placement> {
+        p.into_iter()
+            .map(|r| {
+                let (x, y) = (r.x.get::<meter>(), r.y.get::<meter>());
+                let l = x.hypot(y);
+                Placement {
+                    z: mm(z_mm),
+                    tilt: Some(Tilt::new([x / l, y / l, 0.0], deg(range))),
+                    ..r
+                }
+            })
+            .collect()
     }
 
     /// Du et al. 2015 example hexacopter: m = 1.535 kg, g = 9.80, arm 0.275 m, 0..6.125 N, k = 0.1 m.
@@ -609,10 +630,9 @@ mod tests {
         }
     }
 
+    /// Du et al. 2015 example hexacopter: arm 0.275 m, rotor i at (i - 1) x 60 deg.
     fn hexacopter(spins: [Spin; 6]) -> Vec<Placement> {
-        let mut r = rotors(Layout::Hex, 6, 275.0);
-        r.spins = Some(spins.to_vec());
-        placements(&r).unwrap()
+        ring(275.0, 0.0, &spins)
     }
 
     use Spin::{Ccw as N, Cw as P};
@@ -625,7 +645,7 @@ mod tests {
                 Vector4::new(1.0, -0.275 * az.sin(), 0.275 * az.cos(), 0.1 * spins[i])
             })
             .collect();
-        Matrix4xX::from_columns(&cols)
+        of_columns(&cols)
     }
 
     #[test]
@@ -643,7 +663,7 @@ mod tests {
     }
 
     #[test]
-    fn du_2015_alternating_hexacopter_from_the_hex_preset_matches() {
+    fn du_2015_alternating_hexacopter_placed_on_its_ring_matches() {
         // du-2015: ACAI = 1.4861 intact, 0 with any one rotor lost (within 1e-3).
         let hex = hexacopter([P, N, P, N, P, N]);
         let intact = hover_acai(&hex, &du_hover(), &[]);
@@ -668,8 +688,8 @@ mod tests {
     #[test]
     fn a_quadrotor_that_loses_any_rotor_has_negative_acai() {
         // du-2015: a quadrotor that loses any rotor has ACAI < 0.
-        for layout in [Layout::QuadX, Layout::QuadPlus] {
-            let quad = placements(&rotors(layout, 4, 275.0)).unwrap();
+        for first in [45.0, 0.0] {
+            let quad = ring(275.0, first, &[P, N, P, N]);
             let hover = Hover {
                 weight: n(1.535 * 9.80),
                 rotor_thrust: n(6.125),
@@ -716,7 +736,7 @@ mod tests {
     #[test]
     fn two_fixed_side_by_side_rotors_have_rank_2_with_roll_and_yaw_on_one_input() {
         // DESIGN rule 5: two fixed rotors give rank 2: roll and yaw share one input.
-        let pair = placements(&rotors(Layout::SideBySide, 2, 70.0)).unwrap();
+        let pair = ring(70.0, 90.0, &[P, N]);
         let a = authority(&effectiveness(&pair, n(1.5), mm(3.0)).matrix);
         assert_eq!(a.rank, 2);
         assert_eq!(a.lacking, [Axis::Pitch, Axis::Yaw]);
@@ -727,23 +747,14 @@ mod tests {
     #[test]
     fn two_tilting_rotors_command_pitch_only_through_their_height() {
         // DESIGN rule 5: a tilting rotor makes a pitch moment only through its height.
-        let mut r = rotors(Layout::SideBySide, 2, 70.0);
-        r.mount = Mount::Tilting;
-        r.tilt_range = Some(Angle::new::<degree>(30.0));
-        let flat = placements(&r).unwrap();
-        let hinge = flat[0].tilt.unwrap().hinge;
-        assert!(
-            hinge[1].abs() > 1.0 - 1e-12,
-            "hinge about body y: {hinge:?}"
-        );
+        let flat = tilting(ring(70.0, 90.0, &[P, N]), 30.0, 0.0);
         let a = authority(&effectiveness(&flat, n(1.5), mm(3.0)).matrix);
         assert_eq!(
             (a.rank, a.lacking.as_slice()),
             (3, [Axis::Pitch].as_slice())
         );
 
-        r.height = mm(40.0);
-        let raised = placements(&r).unwrap();
+        let raised = tilting(ring(70.0, 90.0, &[P, N]), 30.0, 40.0);
         assert_eq!(
             authority(&effectiveness(&raised, n(1.5), mm(3.0)).matrix).rank,
             4
@@ -761,21 +772,15 @@ mod tests {
     fn direct_acai(p: &[Placement], hover: &Hover, lost: &[usize]) -> f64 {
         let alive = (p.len() - lost.len()) as f64;
         let e = effectiveness(p, hover.weight / alive, hover.torque_ratio);
-        let hi: Vec<f64> = e
+        let (lo, hi): (Vec<f64>, Vec<f64>) = e
             .actuators
             .iter()
             .map(|a| match (lost.contains(&a.rotor), a.tilt) {
-                (true, _) => 0.0,
-                (false, false) => hover.rotor_thrust.get::<newton>(),
-                (false, true) => p[a.rotor].tilt.map_or(0.0, |t| t.range.sin().value),
+                (true, _) => (0.0, 0.0),
+                (false, false) => (0.0, hover.rotor_thrust.get::<newton>()),
+                (false, true) => p[a.rotor].tilt.map_or((0.0, 0.0), |t| t.bounds()),
             })
-            .collect();
-        let lo: Vec<f64> = e
-            .actuators
-            .iter()
-            .zip(&hi)
-            .map(|(a, h)| if a.tilt { -h } else { 0.0 })
-            .collect();
+            .unzip();
         acai(
             &e.matrix,
             &lo,
@@ -788,13 +793,14 @@ mod tests {
     fn reused_faces_give_the_acai_of_the_definition_for_every_lost_set() {
         // The faces of the intact set serve every lost set: a tilting octocopter with a
         // height, and the Du et al. 2015 hexacopter, each single and pair lost.
-        let mut octo = rotors(Layout::Octo, 8, 300.0);
-        octo.mount = Mount::Tilting;
-        octo.tilt_range = Some(Angle::new::<degree>(20.0));
-        octo.height = mm(50.0);
+        let mut octo = tilting(ring(300.0, 0.0, &[P, N, P, N, P, N, P, N]), 20.0, 50.0);
+        // One rotor holding part of its range (as for a body tilt), so the bounds are uneven.
+        if let Some(t) = octo[2].tilt.as_mut() {
+            t.held = deg(-12.0);
+        }
         let cases = [
             (
-                placements(&octo).unwrap(),
+                octo,
                 Hover {
                     weight: n(60.0),
                     rotor_thrust: n(15.0),
@@ -834,8 +840,9 @@ mod tests {
     #[test]
     fn a_tricopter_needs_its_yaw_servo() {
         // A tricopter's three thrusts set thrust, roll and pitch; the tail servo sets yaw.
-        let tri = placements(&rotors(Layout::Tri, 3, 250.0)).unwrap();
-        assert!(tri[1].tilt.is_some() && tri[0].tilt.is_none());
+        // Rotors at 60, 180 and 300 deg; the tail servo hinged along its arm (body x).
+        let mut tri = ring(250.0, 60.0, &[P, P, N]);
+        tri[1].tilt = Some(Tilt::new([-1.0, 0.0, 0.0], deg(30.0)));
         let hover = Hover {
             weight: n(10.0),
             rotor_thrust: n(7.0),
@@ -854,48 +861,129 @@ mod tests {
     }
 
     #[test]
-    fn a_custom_layout_places_rotors_from_the_sheet_above_the_rotor_plane() {
-        let mut r = rotors(Layout::Custom, 2, 0.0);
-        r.arm = None;
-        r.height = mm(20.0);
-        r.at = vec![
-            RotorAt {
-                x: mm(0.0),
-                y: mm(80.0),
-                z: mm(5.0),
-                spin: Spin::Ccw,
-                tilt_axis: Some([0.0, 1.0, 0.0]),
-                tilt_range: Some(Angle::new::<degree>(20.0)),
-            },
-            RotorAt {
-                x: mm(0.0),
-                y: mm(-80.0),
-                z: mm(5.0),
-                spin: Spin::Cw,
-                tilt_axis: None,
-                tilt_range: None,
-            },
-        ];
-        let p = placements(&r).unwrap();
-        assert!((p[0].z - mm(25.0)).abs() < mm(1e-9));
-        assert!(p[0].tilt.is_some() && p[1].tilt.is_none());
-        // One tilting rotor of two: thrust, roll, pitch (through the height), yaw (tied): rank 3.
-        assert_eq!(
-            authority(&effectiveness(&p, n(1.0), mm(2.0)).matrix).rank,
-            3
-        );
+    fn actuators_that_can_make_nothing_leave_the_hover_point_its_weight_away_and_never_panic() {
+        // du-2015: the ACAI is the signed distance from the hover point G to the boundary of
+        // the attainable set; with every bound 0..0 the set is the origin alone, so (by hand)
+        // the distance is |G| = W, outside: ACAI = -W.
+        let b = du_matrix([1.0, -1.0, 1.0, -1.0, 1.0, -1.0]);
+        let g = Vector4::new(1.535 * 9.80, 0.0, 0.0, 0.0);
+        assert_eq!(acai(&b, &[0.0; 6], &[0.0; 6], g), -1.535 * 9.80);
+        assert_eq!(acai(&of_columns(&[]), &[], &[], g), -1.535 * 9.80);
+        // Rotors with no thrust to give, through the reused faces as the rule calls them.
+        let hover = Hover {
+            rotor_thrust: n(0.0),
+            ..du_hover()
+        };
+        let hex = hexacopter([P, N, P, N, P, N]);
+        for lost in [vec![], vec![0], vec![0, 3]] {
+            let v = hover_acai(&hex, &hover, &lost);
+            assert!(v.is_finite() && v < 0.0, "{lost:?}: {v}");
+        }
+        // No rotors at all: a matrix of no columns, rank 0, every axis lacking.
+        let none = effectiveness(&[], n(1.0), mm(1.0));
+        assert_eq!(none.matrix.ncols(), 0);
+        let a = authority(&none.matrix);
+        assert_eq!((a.rank, a.lacking.len()), (0, 4));
+        assert_eq!(authority(&Matrix4xX::zeros(3)).rank, 0);
     }
 
     #[test]
-    fn a_preset_without_its_arm_or_an_unknown_layout_has_no_placements() {
-        let mut r = rotors(Layout::QuadX, 4, 100.0);
-        r.arm = None;
-        assert!(placements(&r).is_none());
-        r.layout = None;
-        assert!(placements(&r).is_none());
-        let mut single = rotors(Layout::Single, 1, 0.0);
-        single.arm = None;
-        assert_eq!(placements(&single).unwrap().len(), 1);
+    fn the_acai_scales_with_the_forces_from_1e_minus_200_to_1e200() {
+        // du-2015: the index is a support function less an offset, each linear in the
+        // thrust bounds and the weight, so scaling every force by s scales it by s:
+        // the paper's 1.4861 becomes 1.4861 s (torque ratio and arm unchanged).
+        let hex = hexacopter([P, N, P, N, P, N]);
+        for s in [1e-200, 1e-100, 1e-20, 1e20, 1e100, 1e200] {
+            let hover = Hover {
+                weight: n(1.535 * 9.80 * s),
+                rotor_thrust: n(6.125 * s),
+                torque_ratio: Length::new::<meter>(0.1),
+            };
+            let v = hover_acai(&hex, &hover, &[]);
+            assert!((v / s - 1.4861).abs() < 1e-3, "x{s}: {v}");
+            assert_eq!(hover_acai(&hex, &hover, &[2]), 0.0, "x{s}");
+        }
+    }
+
+    #[test]
+    fn an_index_beyond_what_f64_holds_is_nan_never_a_number_that_passes() {
+        // du-2015 hexacopter with every force 1e308 / 6.125: by the scaling above the
+        // index would be 1.4861 x that, 2.43e307, but the set's centre, six columns of
+        // half thrust, overflows f64; the answer must then be NaN (the rule says it
+        // cannot assess), not a face value that skipped the overflowing faces.
+        let b = du_matrix([1.0, -1.0, 1.0, -1.0, 1.0, -1.0]);
+        let s = 1e308 / 6.125;
+        let g = Vector4::new(1.535 * 9.80 * s, 0.0, 0.0, 0.0);
+        let v = acai(&b, &[0.0; 6], &[1e308; 6], g);
+        assert!(v.is_nan() || (v / (1.4861 * s) - 1.0).abs() < 1e-3, "{v}");
+        assert!(least(1.0, f64::NAN).is_nan() && least(f64::NAN, 1.0).is_nan());
+        assert_eq!(least(1.0, -2.0), -2.0);
+    }
+
+    #[test]
+    fn the_rank_does_not_depend_on_how_large_an_actuator_column_is() {
+        // Linear algebra: B D has the rank of B for any invertible diagonal D, so a
+        // tilting bicopter raised 40 mm commands all four axes at any hover thrust;
+        // one shrunk to arms of 1e-300 mm gives a rank and as many lacking axes as it falls short.
+        let raised = tilting(ring(70.0, 90.0, &[P, N]), 30.0, 40.0);
+        for thrust in [1e-300, 1e-9, 1.0, 1e6] {
+            let a = authority(&effectiveness(&raised, n(thrust), mm(3.0)).matrix);
+            assert_eq!(a.rank, 4, "hover thrust {thrust} N");
+        }
+        let tiny = tilting(ring(1e-300, 90.0, &[P, N]), 30.0, 1e-300);
+        let a = authority(&effectiveness(&tiny, n(1.0), mm(1e-300)).matrix);
+        assert!(a.rank <= 4 && a.lacking.len() == 4 - a.rank);
+    }
+
+    #[test]
+    fn a_hinge_along_body_y_holds_a_body_pitch_by_tilting_back_as_far() {
+        // Statics by hand: a body pitched nose down by 20 deg has its thrust vertical
+        // again when a rotor hinged about +y tilts -20 deg (about -y: +20 deg); a hinge
+        // along x cannot help; a 15 deg stop holds only 15 deg.
+        let pitch = deg(20.0);
+        let held = |h: [f64; 3], up_to: f64| hold_angle(h, pitch, deg(up_to)).get::<degree>();
+        assert!((held([0.0, 1.0, 0.0], 30.0) + 20.0).abs() < 1e-9);
+        assert!((held([0.0, -1.0, 0.0], 30.0) - 20.0).abs() < 1e-9);
+        assert_eq!(held([1.0, 0.0, 0.0], 30.0), 0.0);
+        assert!((held([0.0, 1.0, 0.0], 15.0) + 15.0).abs() < 1e-9);
+        // What is left for control: from -30 - (-20) = -10 deg to 30 + 20 = 50 deg.
+        let t = Tilt {
+            held: deg(-20.0),
+            ..Tilt::new([0.0, 1.0, 0.0], deg(30.0))
+        };
+        let (lo, hi) = t.bounds();
+        assert!((lo - (-10f64).to_radians().sin()).abs() < 1e-12, "{lo}");
+        assert!((hi - 50f64.to_radians().sin()).abs() < 1e-12, "{hi}");
+    }
+
+    #[test]
+    fn a_tilting_pair_that_spends_its_whole_range_on_a_body_tilt_has_no_authority_left() {
+        // du-2015: a hover point on the boundary of the attainable set has ACAI 0 (it
+        // cannot be pushed one way); a bicopter whose pitch comes from tilting alone,
+        // with both rotors held at their stop, is there. Half the range held leaves less.
+        let hover = Hover {
+            weight: n(3.0),
+            rotor_thrust: n(2.5),
+            torque_ratio: mm(3.0),
+        };
+        let hold = |spent: f64| -> Vec<Placement> {
+            tilting(ring(70.0, 90.0, &[P, N]), 30.0, 40.0)
+                .into_iter()
+                .map(|mut r| {
+                    if let Some(t) = r.tilt.as_mut() {
+                        t.held = hold_angle(t.hinge, deg(spent), t.range);
+                    }
+                    r
+                })
+                .collect()
+        };
+        let (free, half, all) = (
+            hover_acai(&hold(0.0), &hover, &[]),
+            hover_acai(&hold(15.0), &hover, &[]),
+            hover_acai(&hold(30.0), &hover, &[]),
+        );
+        assert!(free > half && half > 0.0, "{free} {half}");
+        assert!(all <= 0.0, "{all}");
     }
 
     #[test]
@@ -958,10 +1046,8 @@ mod tests {
         let mut one_lost = [6.125; 6];
         one_lost[0] = 0.0;
         // Tilting bicopter, rotors 40 mm above the centre of mass, tilting +-30 deg.
-        let mut r = rotors(Layout::SideBySide, 2, 70.0);
-        (r.mount, r.height) = (Mount::Tilting, mm(40.0));
-        r.tilt_range = Some(Angle::new::<degree>(30.0));
-        let bicopter = effectiveness(&placements(&r).unwrap(), n(1.5), mm(3.0)).matrix;
+        let raised = tilting(ring(70.0, 90.0, &[P, N]), 30.0, 40.0);
+        let bicopter = effectiveness(&raised, n(1.5), mm(3.0)).matrix;
         let s = 30f64.to_radians().sin();
         let cases = [
             (alternating, vec![0.0; 6], vec![6.125; 6], g),

@@ -1,35 +1,38 @@
 //! Rule 5, control-authority: can the actuators make the forces and moments a
 //! hover needs, with margin, and after a rotor is lost?
 //!
-//! Givens: where the rotors sit and how they spin and tilt ([`control::placements`]),
-//! the weight W, each rotor's maximum thrust per tier (the thrust-margin
-//! estimate) and the propeller's drag torque per thrust k = ratio x D.
-//! Method: the control-effectiveness matrix at hover, its rank (which axes can
-//! be commanded at all), and the ACAI of Du, Quan, Yang, Cai 2015 (how far the
-//! hover point lies inside the set of forces and moments the rotors can make),
-//! intact and with rotors lost. Comparison: ACAI > 0 at the physical limit and
-//! at best practice; at the typical tier, ACAI above the moment of a typical
-//! thrust mismatch between rotors.
+//! [`solve`] is the worked solution. Givens: where the rotors sit and how they
+//! spin and tilt ([`geometry::placements`]), the tilt each tilting rotor spends
+//! holding a claimed body tilt ([`geometry::held_body_tilt`]), the weight W,
+//! each rotor's maximum thrust per tier (the thrust-margin estimate) and the
+//! propeller's drag torque per thrust k = ratio x D. Method: the
+//! control-effectiveness matrix at hover, its rank (which axes can be commanded
+//! at all), and the ACAI of Du, Quan, Yang, Cai 2015 (how far the hover point
+//! lies inside the set of forces and moments the rotors can make), intact and
+//! with rotors lost. Comparison: ACAI > 0 at the physical limit and at best
+//! practice; at the typical tier, ACAI above the moment of a typical thrust
+//! mismatch between rotors. [`describe`] turns the [`Analysis`] into the
+//! finding; the verdict page draws the rotors and the worst loss from the same
+//! analysis ([`rules::check`](crate::rules::check)).
 
 use std::borrow::Cow;
-use std::cell::OnceCell;
 use std::fmt;
 
-use serde::Serialize;
-use uom::si::f64::{Force, Length};
-use uom::si::{length::millimeter, torque::newton_meter};
+use uom::si::angle::degree;
+use uom::si::f64::{Angle, Force, Length};
+use uom::si::{force::newton, length::millimeter, torque::newton_meter};
 
 use super::common::{self, fixed, per_tier, tiered};
-use super::thrust_margin;
+use super::{geometry, thrust_margin};
 use crate::catalog::tiers::{REACTIVE_TORQUE, THRUST_MISMATCH};
-use crate::claim::{Claim, Layout, Mount, Spin};
+use crate::claim::{Claim, Layout, Mount};
 use crate::physics::control::{self, Authority, Axis, Hover, Placement};
 use crate::report::{keys, Figure, Finding, Sig3, Verdict};
 use crate::tier::{PerTier, Tier};
 
 pub const ID: &str = "control-authority";
 pub const TITLE: &str = "Control authority";
-pub const METHOD: &str = "Each actuator's effect on thrust, roll, pitch and yaw at hover makes one column of the control-effectiveness matrix: a rotor at (x, y, z) spinning s (+1 clockwise seen from above) gives [1, y, -x, s k] per newton, with k the propeller's drag torque per thrust; a tilt actuator with hinge h gives T_h [0, r x d + s k d] with d = h x z, linearised at the hover thrust T_h = W / n, so a tilting rotor pitches the craft only through its height above the centre of mass. The rank of the matrix (SVD, relative tolerance 1e-9) says which axes can be commanded; fewer than four is impossible. The available control authority index (ACAI, Du, Quan, Yang, Cai 2015) is the signed distance from the hover point (W, 0, 0, 0) to the boundary of the set of forces and moments the actuators can make with each rotor between 0 and its maximum thrust and each tilt within its range: for every three independent columns, the support of the set along the normal of their span, less the hover point's offset from the set's centre along it; the least of these. ACAI <= 0 at the physical limit is impossible, at best practice implausible; at the typical tier it must exceed the moment of a typical thrust mismatch (5 % of one rotor's hover thrust on its lever) or the claim is doubtful. A claimed rotor-failure tolerance of k is judged the same way on the ACAI with every set of up to k rotors stopped.";
+pub const METHOD: &str = "Each actuator's effect on thrust, roll, pitch and yaw at hover makes one column of the control-effectiveness matrix: a rotor at (x, y, z) spinning s (+1 clockwise seen from above) gives [1, y, -x, s k] per newton, with k the propeller's drag torque per thrust; a tilt actuator with hinge h gives T_h [0, r x d + s k d] with d = h x z, linearised at the hover thrust T_h = W / n, so a tilting rotor pitches the craft only through its height above the centre of mass. The rank of the matrix (SVD of the matrix with each column scaled to unit length, relative tolerance 1e-9) says which axes can be commanded; fewer than four is impossible. The available control authority index (ACAI, Du, Quan, Yang, Cai 2015) is the signed distance from the hover point (W, 0, 0, 0) to the boundary of the set of forces and moments the actuators can make with each rotor between 0 and its maximum thrust and each tilt within its range: for every three independent columns, the support of the set along the normal of their span, less the hover point's offset from the set's centre along it; the least of these. Tilting rotors that hold a claimed body tilt (tilting back as far as the tilt-equilibrium rule counts) have only the rest of their range left for control: their deflections are counted from the held tilt. ACAI <= 0 at the physical limit is impossible, at best practice implausible; at the typical tier it must exceed the moment of a typical thrust mismatch (5 % of one rotor's hover thrust on its lever) or the claim is doubtful. A claimed rotor-failure tolerance of k is judged the same way on the ACAI with every set of up to k rotors stopped.";
 
 /// The most work (ACAI evaluations x face normals x generators) the rule does for one
 /// sheet: the intact ACAI for up to about 40 actuators, the failure table for fewer.
@@ -37,49 +40,165 @@ const SEARCH_BUDGET: f64 = 4e6;
 /// Figure keys of the worst ACAI with one, two, ... rotors lost.
 const LOST_KEYS: [&str; 4] = keys::ACAI_ROTORS_LOST;
 
-/// What the rule works out from a claim; shared with [`layout_view`].
-struct Analysis {
-    placements: Vec<Placement>,
-    weight: Force,
-    diameter: Length,
-    authority: Authority,
-    /// Per-rotor maximum thrust per tier, when the sheet lets it be estimated.
-    thrust: Option<PerTier<Force>>,
-    /// The attainable set's face normals, worked out on first use: one set per
-    /// distinct drag-torque ratio (the generous tiers share theirs), and the set of each tier.
-    faces: OnceCell<(Vec<control::Faces>, PerTier<usize>)>,
+/// One set of stopped rotors and the authority the rest keep.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Failure {
+    /// The rotors stopped, numbered from 0 in placement order.
+    pub lost: Vec<usize>,
+    /// The ACAI of the rotors left, per tier (N and N m).
+    pub acai: PerTier<f64>,
+    /// The margin it must clear per tier (N m): none at the generous tiers.
+    pub margin: PerTier<f64>,
 }
 
-/// Sets of lost rotors (0-based), with the ACAI at each tier.
-type FailureTable = Vec<(Vec<usize>, PerTier<f64>)>;
+impl Failure {
+    fn passes(&self, t: Tier) -> bool {
+        self.acai[t] > self.margin[t]
+    }
+}
+
+/// How far the rule could take the margin of control.
+#[derive(Debug, Clone, PartialEq)]
+pub enum Margins {
+    /// Fewer than four axes can be commanded: no thrust makes up for that.
+    AxesLacking,
+    /// The sheet gives nothing to estimate a rotor's thrust from.
+    NoThrust,
+    /// More actuators than the search budget allows even for the intact ACAI.
+    TooManyActuators,
+    /// The claimed failure tolerance needs more lost sets than the search allows.
+    FailuresBeyondSearch,
+    /// The index could not be bounded in f64 for these numbers.
+    Unbounded,
+    /// The ACAI intact and with rotors lost, per tier.
+    Searched {
+        intact: Failure,
+        /// Every set of up to `searched` rotors lost, in order of size.
+        failures: Vec<Failure>,
+        /// Up to this many rotors lost at once (0 when the table was beyond the search).
+        searched: usize,
+    },
+}
+
+/// What the rule reads from a sheet, in its own terms.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Givens {
+    /// The rotors in body axes ([`geometry::placements`]), tilts holding `held_tilt`.
+    pub placements: Vec<Placement>,
+    pub diameter: Length,
+    pub weight: Force,
+    /// Per-rotor maximum thrust per tier, when the sheet lets it be estimated.
+    pub thrust: Option<PerTier<Force>>,
+    /// The body tilt the tilting rotors hold (0 when none is claimed or the mount is fixed).
+    pub held_tilt: Angle,
+    /// Rotors the craft is said to survive losing.
+    pub claimed: usize,
+}
+
+impl Givens {
+    /// The givens of a sheet, or the fields it would need to give.
+    pub fn of(claim: &Claim) -> Result<Givens, &'static str> {
+        let r = &claim.rotors;
+        let Some(placements) = geometry::placements(r) else {
+            return Err(match r.layout {
+                None | Some(Layout::Custom) => "the rotor layout (rotors.layout with rotors.arm, or layout = \"custom\" with [[rotors.at]] positions)",
+                Some(_) => "the arm length (rotors.arm)",
+            });
+        };
+        let Some((diameter, _)) = common::rotor_diameter(claim) else {
+            return Err("the rotor diameter (rotors.diameter) or a motor class (rotors.motor)");
+        };
+        let air = common::air(claim);
+        let held_tilt = geometry::held_body_tilt(claim);
+        Ok(Givens {
+            placements: geometry::holding(placements, held_tilt),
+            diameter,
+            weight: common::weight(claim, &air),
+            thrust: thrust_margin::estimate(claim, &air).map(|e| e.available),
+            held_tilt,
+            claimed: claim.claim.survives_rotor_failure as usize,
+        })
+    }
+}
+
+/// The rule's worked solution, handed on with the report: the drawings of the
+/// rotors and of the worst rotor loss read it rather than work it out again.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Analysis {
+    pub givens: Givens,
+    /// Which axes the actuators command.
+    pub authority: Authority,
+    pub margins: Margins,
+    /// The first tier, most generous first, at which the claim fails.
+    pub fails_at: Option<Tier>,
+    pub verdict: Verdict,
+}
 
 impl Analysis {
-    fn torque_ratio(&self, t: Tier) -> Length {
-        self.diameter * REACTIVE_TORQUE.at(t)
+    /// The set of `size` lost rotors that leaves the least ACAI at tier `t`; of sets
+    /// equal but for round-off (a symmetric craft), the first in rotor order.
+    pub fn worst(&self, size: usize, t: Tier) -> Option<&Failure> {
+        let Margins::Searched { failures, .. } = &self.margins else {
+            return None;
+        };
+        let sets = || failures.iter().filter(|f| f.lost.len() == size);
+        let least = sets().map(|f| f.acai[t]).fold(f64::INFINITY, f64::min);
+        let scale = sets().map(|f| f.acai[t].abs()).fold(0.0, f64::max);
+        sets().find(|f| f.acai[t] - least <= 1e-9 * scale)
     }
 
-    fn acai(&self, t: Tier, lost: &[usize]) -> Option<f64> {
-        let hover = Hover {
-            weight: self.weight,
-            rotor_thrust: self.thrust?[t],
-            torque_ratio: self.torque_ratio(t),
-        };
-        let (faces, of_tier) = self.faces.get_or_init(|| {
-            let mut ratios: Vec<Length> = Vec::with_capacity(3);
-            let of_tier = PerTier::from_fn(|t| {
-                let k = self.torque_ratio(t);
-                ratios.iter().position(|&r| r == k).unwrap_or_else(|| {
-                    ratios.push(k);
-                    ratios.len() - 1
-                })
-            });
-            let faces = ratios
-                .into_iter()
-                .map(|k| control::Faces::new(&self.placements, k))
-                .collect();
-            (faces, of_tier)
+    /// The single rotor whose loss leaves the least authority with typical
+    /// rotors (Du, Quan, Yang, Cai 2015: below zero, hover cannot be held);
+    /// `None` when the rule could not search failures.
+    pub fn worst_single_loss(&self) -> Option<&Failure> {
+        self.worst(1, Tier::Typical)
+    }
+}
+
+/// Sets of lost rotors (0-based) and the ACAI of each at every tier, worked out
+/// on faces reused for every set: one set of faces per distinct drag-torque
+/// ratio (the generous tiers share theirs).
+struct Search<'a> {
+    placements: &'a [Placement],
+    weight: Force,
+    diameter: Length,
+    thrust: PerTier<Force>,
+    faces: Vec<control::Faces>,
+    of_tier: PerTier<usize>,
+}
+
+impl<'a> Search<'a> {
+    fn new(
+        placements: &'a [Placement],
+        weight: Force,
+        diameter: Length,
+        thrust: PerTier<Force>,
+    ) -> Self {
+        let torque_ratio = |t: Tier| diameter * REACTIVE_TORQUE.at(t);
+        let mut ratios: Vec<Length> = Vec::with_capacity(3);
+        let of_tier = PerTier::from_fn(|t| {
+            let k = torque_ratio(t);
+            ratios.iter().position(|&r| r == k).unwrap_or_else(|| {
+                ratios.push(k);
+                ratios.len() - 1
+            })
         });
-        Some(faces[of_tier[t]].hover_acai(&self.placements, &hover, lost))
+        let faces = ratios
+            .into_iter()
+            .map(|k| control::Faces::new(placements, k))
+            .collect();
+        Search {
+            placements,
+            weight,
+            diameter,
+            thrust,
+            faces,
+            of_tier,
+        }
+    }
+
+    fn torque_ratio(&self, t: Tier) -> Length {
+        self.diameter * REACTIVE_TORQUE.at(t)
     }
 
     /// The margin the ACAI must clear: none at the generous tiers; at the typical
@@ -99,72 +218,390 @@ impl Analysis {
             .fold(0.0, f64::max)
     }
 
-    /// Whether `cases` ACAIs (each over every three of c columns) fit the budget.
-    fn affordable(&self, cases: usize) -> bool {
-        let c = (self.placements.len()
-            + self.placements.iter().filter(|p| p.tilt.is_some()).count()) as f64;
-        cases as f64 * c * c * c * c / 6.0 <= SEARCH_BUDGET
+    /// The ACAI and margin of every tier with `lost` stopped.
+    fn failure(&self, lost: Vec<usize>) -> Failure {
+        let acai = PerTier::from_fn(|t| {
+            let hover = Hover {
+                weight: self.weight,
+                rotor_thrust: self.thrust[t],
+                torque_ratio: self.torque_ratio(t),
+            };
+            self.faces[self.of_tier[t]].hover_acai(self.placements, &hover, &lost)
+        });
+        let margin = PerTier::from_fn(|t| self.margin(t, &lost));
+        Failure { lost, acai, margin }
     }
+}
 
-    /// Every set of up to `size` lost rotors, if the search fits the budget.
-    fn failures(&self, size: usize) -> Option<FailureTable> {
-        let n = self.placements.len();
-        let sets: Vec<Vec<usize>> = (1..=size.min(n.saturating_sub(1)))
-            .flat_map(|k| control::combinations(n, k))
-            .collect();
-        if !self.affordable(3 * sets.len()) {
-            return None;
-        }
-        sets.into_iter()
-            .map(|s| {
-                let v = PerTier::from_fn(|t| self.acai(t, &s));
-                Some((
-                    s,
-                    PerTier::new(v.physical_limit?, v.best_practice?, v.typical?),
-                ))
-            })
-            .collect()
+/// Whether `cases` ACAIs (each over every three of c columns) fit the budget.
+fn affordable(placements: &[Placement], cases: usize) -> bool {
+    let c = (placements.len() + placements.iter().filter(|p| p.tilt.is_some()).count()) as f64;
+    cases as f64 * c * c * c * c / 6.0 <= SEARCH_BUDGET
+}
+
+/// How many rotors lost at once the failure table goes up to: the claimed
+/// tolerance, and at least one (two for six or more rotors), at most four.
+fn failure_search(claimed: usize, n: usize) -> usize {
+    let usual = if n >= 6 { 2 } else { 1 };
+    claimed.max(usual).min(LOST_KEYS.len())
+}
+
+/// Every set of up to `size` lost rotors (keeping one), if the search fits the budget.
+fn lost_sets(placements: &[Placement], size: usize) -> Option<Vec<Vec<usize>>> {
+    let n = placements.len();
+    let sets: Vec<Vec<usize>> = (1..=size.min(n.saturating_sub(1)))
+        .flat_map(|k| control::combinations(n, k))
+        .collect();
+    affordable(placements, 3 * sets.len()).then_some(sets)
+}
+
+/// The ACAI intact and with rotors lost, as far as the sheet and the search allow.
+fn margins(g: &Givens, authority: &Authority) -> Margins {
+    let placements = &g.placements[..];
+    if authority.rank < 4 {
+        return Margins::AxesLacking;
     }
+    let Some(thrust) = g.thrust else {
+        return Margins::NoThrust;
+    };
+    if !affordable(placements, 3) {
+        return Margins::TooManyActuators;
+    }
+    let searched = failure_search(g.claimed, placements.len());
+    let sets = lost_sets(placements, searched);
+    if g.claimed > searched || (g.claimed > 0 && sets.is_none()) {
+        return Margins::FailuresBeyondSearch;
+    }
+    let search = Search::new(placements, g.weight, g.diameter, thrust);
+    let intact = search.failure(Vec::new());
+    let searched = if sets.is_some() { searched } else { 0 };
+    let failures: Vec<Failure> = sets
+        .unwrap_or_default()
+        .into_iter()
+        .map(|s| search.failure(s))
+        .collect();
+    let finite = |f: &Failure| f.acai.iter().chain(f.margin.iter()).all(|v| v.is_finite());
+    if !finite(&intact) || !failures.iter().all(finite) {
+        return Margins::Unbounded;
+    }
+    Margins::Searched {
+        intact,
+        failures,
+        searched,
+    }
+}
+
+/// The worked solution, or the fields the sheet would need for it.
+pub fn solve(claim: &Claim) -> Result<Analysis, &'static str> {
+    let givens = Givens::of(claim)?;
+    let g = &givens;
+
+    // 1. Rank: which axes the actuators command at all (at any hover thrust: 1 N).
+    let k = g.diameter * REACTIVE_TORQUE.at(Tier::Typical);
+    let unit = Force::new::<newton>(1.0);
+    let authority = control::authority(&control::effectiveness(&g.placements, unit, k).matrix);
+
+    // 2. ACAI intact and with rotors lost, per tier, against the margin of each tier.
+    let margins = margins(g, &authority);
+
+    // 3. The verdict: the first tier at which the intact craft or a claimed loss fails.
+    let (fails_at, verdict) = match &margins {
+        Margins::AxesLacking => (Some(Tier::PhysicalLimit), Verdict::Impossible),
+        Margins::Searched {
+            intact, failures, ..
+        } => {
+            let claimed_sets = || failures.iter().filter(|f| f.lost.len() <= g.claimed);
+            let fails_at =
+                common::first_failure(|t| intact.passes(t) && claimed_sets().all(|f| f.passes(t)));
+            (fails_at, Verdict::failing_at(fails_at))
+        }
+        _ => (None, Verdict::NotAssessed),
+    };
+    Ok(Analysis {
+        givens,
+        authority,
+        margins,
+        fails_at,
+        verdict,
+    })
+}
+
+/// The finding, and the analysis behind it when the sheet allowed one.
+pub fn checked(claim: &Claim) -> (Finding, Option<Analysis>) {
+    match solve(claim) {
+        Ok(an) => (describe(claim, &an), Some(an)),
+        Err(needs) => (Finding::not_assessed(ID, needs), None),
+    }
+}
+
+pub fn check(claim: &Claim) -> Finding {
+    checked(claim).0
 }
 
 const SEARCH_LIMIT: &str = "A control-allocation study beyond this screen's search limit; the rank above holds regardless.";
 const NEEDS_THRUST: &str = "a per-rotor thrust (rotors.max_thrust), a motor class (rotors.motor), or power and diameter (rotors.max_power and rotors.diameter)";
 
-/// How many rotors lost at once the failure table goes up to: the claimed
-/// tolerance, and at least one (two for six or more rotors), at most four.
-fn failure_search(claim: &Claim, n: usize) -> usize {
-    let usual = if n >= 6 { 2 } else { 1 };
-    (claim.claim.survives_rotor_failure as usize)
-        .max(usual)
-        .min(LOST_KEYS.len())
+/// The finding of an analysis: figures, headline, what it would take, assumptions.
+pub fn describe(claim: &Claim, an: &Analysis) -> Finding {
+    let n = an.givens.placements.len();
+    let a = &an.authority;
+    let rank = fixed(
+        keys::RANK,
+        "Axes the actuators can command independently (rank of the control-effectiveness matrix, of 4)",
+        a.rank as f64,
+        "1",
+    );
+    let mut assumptions = Vec::with_capacity(5);
+    assumptions.push(format!(
+        "Rotor positions from the {} layout; body axes x forward, y left, z up; rotors numbered clockwise from the nose seen from above.",
+        claim.rotors.layout.map_or("stated", Layout::id),
+    ));
+    assumptions.push(format!(
+        "Propeller drag torque per thrust {} of the rotor diameter ({} mm); {}.",
+        REACTIVE_TORQUE.values,
+        Sig3(an.givens.diameter.get::<millimeter>()),
+        REACTIVE_TORQUE.basis,
+    ));
+    assumptions.push(
+        "Tilt actuators linearised at hover, each rotor carrying an equal share of the weight."
+            .to_string(),
+    );
+    let held = held_tilt_words(claim, an);
+    if let Some(words) = &held {
+        assumptions.push(words.assumption.clone());
+    }
+    let sources: &[&str] = &["du-2015", "statics"];
+
+    let (intact, failures, searched) = match &an.margins {
+        // An axis no actuator can command cannot be held at any thrust.
+        Margins::AxesLacking => {
+            return Finding {
+                rule: ID,
+                verdict: an.verdict,
+                headline: format!(
+                    "Its actuators cannot command {} independently: {}. Without control of every axis it cannot hold a hover.",
+                    axes(&a.lacking),
+                    WhyRank(a),
+                ),
+                figures: vec![rank],
+                would_take: format!("It would take {}.", fix_for_rank(claim, a)),
+                assumptions,
+                sources,
+            };
+        }
+        Margins::NoThrust => {
+            let mut f = Finding::not_assessed(ID, NEEDS_THRUST);
+            f.headline = format!(
+                "Its actuators can command all four axes, but the margin is not assessed: the sheet does not give {NEEDS_THRUST}."
+            );
+            f.figures.push(rank);
+            return f;
+        }
+        Margins::TooManyActuators => {
+            let mut f = Finding::not_assessed(
+                ID,
+                "fewer actuators (this screen searches up to about 40 rotor thrusts and tilts)",
+            );
+            f.headline = "Its actuators can command all four axes; the margin is not assessed: it has more actuators than this screen searches.".to_string();
+            f.would_take = SEARCH_LIMIT.to_string();
+            f.figures.push(rank);
+            return f;
+        }
+        Margins::FailuresBeyondSearch => {
+            let mut f = Finding::not_assessed(ID, "a craft small enough to search every combination of lost rotors (up to four lost, about 16 rotors)");
+            f.headline = format!(
+                "Not assessed: the claim to survive {} lost rotors needs more combinations searched than this screen does.",
+                an.givens.claimed,
+            );
+            f.would_take = SEARCH_LIMIT.to_string();
+            f.figures.push(rank);
+            return f;
+        }
+        Margins::Unbounded => {
+            let mut f = Finding::not_assessed(
+                ID,
+                "masses, lengths and thrusts within what this screen computes",
+            );
+            f.headline = "Its actuators can command all four axes; the margin is not assessed: its figures are beyond the range this screen computes in.".to_string();
+            f.figures.push(rank);
+            return f;
+        }
+        Margins::Searched {
+            intact,
+            failures,
+            searched,
+        } => (intact, failures, *searched),
+    };
+    let claimed = an.givens.claimed;
+    let thrust = an.givens.thrust.unwrap_or_default();
+
+    // The rank, the margin, and per tier the ACAI and the worst of each failure size.
+    let mut figures = Vec::with_capacity(2 + 3 * (1 + LOST_KEYS.len()));
+    figures.push(rank);
+    figures.extend(per_tier(
+        keys::ACAI,
+        "Available control authority index, intact (N and N m)",
+        "N, N m",
+        |t| intact.acai[t],
+    ));
+    figures.push(tiered(
+        keys::MISMATCH_MOMENT,
+        "Moment of a typical thrust mismatch, the margin the ACAI must clear",
+        Tier::Typical,
+        intact.margin[Tier::Typical],
+        "N m",
+    ));
+    for (size, key) in LOST_KEYS.iter().enumerate().map(|(i, k)| (i + 1, *k)) {
+        for t in Tier::ALL {
+            if let Some(f) = an.worst(size, t) {
+                let label = match size {
+                    1 => format!("ACAI with the worst rotor lost ({})", RotorList(&f.lost)),
+                    _ => format!(
+                        "ACAI with the worst {size} rotors lost ({})",
+                        RotorList(&f.lost)
+                    ),
+                };
+                figures.push(tiered(key, label, t, f.acai[t], "N, N m"));
+            }
+        }
+    }
+    figures.retain(|f: &Figure| f.value.is_finite());
+
+    // The words.
+    let at = |t: Tier| Sig3(intact.acai[t]);
+    let lifts = |t: Tier| thrust[t] * n as f64 >= an.givens.weight;
+    let claimed_sets = || failures.iter().filter(|f| f.lost.len() <= claimed);
+    let first_bad_set = |t: Tier| claimed_sets().find(|f| !f.passes(t));
+    let intact_fails = |t: Tier| !intact.passes(t);
+    let spent = |t: Tier| match (&held, intact_fails(t)) {
+        (Some(words), true) => format!(" {}", words.headline),
+        _ => String::new(),
+    };
+    let wider = if held.is_some() {
+        ", or a wider tilt range (rotors.tilt_range)"
+    } else {
+        ""
+    };
+    let (headline, would_take) = match an.fails_at {
+        Some(t) if intact_fails(t) && !lifts(t) => (
+            format!(
+                "Its rotors cannot lift it even at full thrust ({}), so nothing is left to steer with (see thrust-margin).",
+                tier_phrase(t),
+            ),
+            "It would take more thrust per rotor or more rotors (see thrust-margin).".to_string(),
+        ),
+        Some(Tier::Typical) if intact.acai[Tier::Typical] <= 0.0 => (
+            format!(
+                "With typical rotors it cannot make every moment a hover needs (ACAI {}); only better-than-typical ones give it control.{}",
+                at(Tier::Typical),
+                spent(Tier::Typical),
+            ),
+            format!("It would take rotors with more thrust to spare (hovering well below full thrust), or longer arms{wider}."),
+        ),
+        Some(Tier::Typical) if intact_fails(Tier::Typical) => (
+            format!(
+                "Its control margin in hover (ACAI {} with typical rotors) is smaller than the {} N m of a typical {} % thrust mismatch between rotors: a worn propeller or a gust could tip it.{}",
+                at(Tier::Typical),
+                Sig3(intact.margin[Tier::Typical]),
+                (100.0 * THRUST_MISMATCH.at(Tier::Typical)).round(),
+                spent(Tier::Typical),
+            ),
+            format!("It would take rotors with more thrust to spare (hovering well below full thrust), or longer arms{wider}."),
+        ),
+        Some(t) if intact_fails(t) => (
+            format!(
+                "Even at full thrust from {} rotors it cannot make every moment a hover needs (ACAI {} {}).{}",
+                if t == Tier::PhysicalLimit { "perfect" } else { "the best" },
+                at(t),
+                tier_phrase(t),
+                spent(t),
+            ),
+            format!("It would take rotors with more thrust to spare, longer arms, or rotors of both spin directions spread around the centre of mass{wider}."),
+        ),
+        Some(t) => {
+            let (set, v) = first_bad_set(t).map_or((&[][..], 0.0), |f| (&f.lost[..], f.acai[t]));
+            (
+                format!(
+                    "It is said to keep flying after losing {claimed} {}, but with {} lost the rest {} (ACAI {} {}).",
+                    if claimed > 1 { "rotors" } else { "rotor" },
+                    RotorList(set),
+                    if v <= 0.0 { "cannot make every moment a hover needs" } else { "have too little control to spare" },
+                    Sig3(v),
+                    tier_phrase(t),
+                ),
+                "It would take six or more rotors with thrust to spare and a failure-tolerant spin pattern (for six, P P N N P N: Du et al. 2015), or no claim of rotor-failure tolerance.".to_string(),
+            )
+        }
+        None => {
+            let single = an.worst(1, Tier::Typical);
+            let after: Cow<str> = match (claimed, single) {
+                (0, Some(f)) if f.acai[Tier::Typical] <= 0.0 => {
+                    format!(" Losing {} would leave it without control.", RotorList(&f.lost)).into()
+                }
+                (0, Some(_)) => " It could keep flying after losing any one rotor.".into(),
+                (k, _) if k > 0 => format!(" It keeps control after losing any {k}.").into(),
+                _ => "".into(),
+            };
+            (
+                format!(
+                    "Its rotors can command thrust, roll, pitch and yaw with margin (ACAI {} with typical rotors, against {} N m of a typical thrust mismatch).{after}",
+                    at(Tier::Typical),
+                    Sig3(intact.margin[Tier::Typical]),
+                ),
+                "Nothing: its actuators hold a hover with control to spare.".to_string(),
+            )
+        }
+    };
+    assumptions.push(format!(
+        "Rotor thrust between zero and the thrust-margin estimate at each tier; a lost rotor gives none. Failure sets searched: up to {searched} {} lost at once.",
+        if searched == 1 { "rotor" } else { "rotors" },
+    ));
+    Finding {
+        rule: ID,
+        verdict: an.verdict,
+        headline,
+        figures,
+        would_take,
+        assumptions,
+        sources,
+    }
 }
 
-/// The analysis, or the fields the sheet would need for it.
-fn analyse(claim: &Claim) -> Result<Analysis, &'static str> {
-    let r = &claim.rotors;
-    let Some(placements) = control::placements(r) else {
-        let needs = match r.layout {
-            None | Some(Layout::Custom) => "the rotor layout (rotors.layout with rotors.arm, or layout = \"custom\" with [[rotors.at]] positions)",
-            Some(_) => "the arm length (rotors.arm)",
-        };
-        return Err(needs);
-    };
-    let Some((diameter, _)) = common::rotor_diameter(claim) else {
-        return Err("the rotor diameter (rotors.diameter) or a motor class (rotors.motor)");
-    };
-    let air = common::air(claim);
-    let weight = common::weight(claim, &air);
-    let share = weight / placements.len() as f64;
-    let k = diameter * REACTIVE_TORQUE.at(Tier::Typical);
-    let authority = control::authority(&control::effectiveness(&placements, share, k).matrix);
-    let thrust = thrust_margin::estimate(claim, &air).map(|e| e.available);
-    Ok(Analysis {
-        placements,
-        weight,
-        diameter,
-        authority,
-        thrust,
-        faces: OnceCell::new(),
+/// What the finding says of the tilt spent holding a claimed body tilt.
+struct HeldWords {
+    assumption: String,
+    headline: String,
+}
+
+/// The words for the tilt the tilting rotors spend holding the body tilt, if they spend any.
+fn held_tilt_words(claim: &Claim, an: &Analysis) -> Option<HeldWords> {
+    // Degrees as a person reads them: 30 deg less 20 deg is 10, not 9.999999.
+    let deg = |a: Angle| Sig3((a.get::<degree>() * 1e6).round() / 1e6);
+    let range = claim.rotors.tilt_range?;
+    if an.givens.held_tilt.get::<degree>() <= 0.0
+        || !an.givens.placements.iter().any(|p| p.tilt.is_some())
+    {
+        return None;
+    }
+    let body = claim.claim.hover_tilt.unwrap_or(an.givens.held_tilt);
+    let back = (range - an.givens.held_tilt).max(Angle::new::<degree>(0.0));
+    let forth = (range + an.givens.held_tilt).min(Angle::new::<degree>(90.0));
+    Some(HeldWords {
+        assumption: format!(
+            "The tilting rotors hold the claimed {} deg body tilt by tilting back up to {} deg each (as the tilt-equilibrium rule counts it); control deflections are counted from there, so {} deg of the {} deg range is left one way ({} deg the other). Their thrust is taken as vertical and the tilt columns as at a level hover, which errs generous for large deflections.",
+            deg(body),
+            deg(an.givens.held_tilt),
+            deg(back),
+            deg(range),
+            deg(forth),
+        ),
+        headline: format!(
+            "Holding the {} deg body tilt takes {} deg of the rotors' {} deg tilt range, leaving {} deg for control one way.",
+            deg(body),
+            deg(an.givens.held_tilt),
+            deg(range),
+            deg(back),
+        ),
     })
 }
 
@@ -233,314 +670,6 @@ impl fmt::Display for WhyRank<'_> {
         }
         Ok(())
     }
-}
-
-pub fn check(claim: &Claim) -> Finding {
-    match analyse(claim) {
-        Ok(an) => assess(claim, &an),
-        Err(needs) => Finding::not_assessed(ID, needs),
-    }
-}
-
-/// The finding and the intact top view ([`layout_view`] with no rotor lost)
-/// from one analysis: the verdict page draws the rotors beside the report,
-/// and the analysis (an SVD among it) need not run twice.
-pub fn check_with_view(claim: &Claim) -> (Finding, Option<LayoutView>) {
-    match analyse(claim) {
-        Ok(an) => {
-            let view = view_of(&an, &[], &an.authority);
-            (assess(claim, &an), Some(view))
-        }
-        Err(needs) => (Finding::not_assessed(ID, needs), None),
-    }
-}
-
-/// The finding of an analysis.
-fn assess(claim: &Claim, an: &Analysis) -> Finding {
-    let n = an.placements.len();
-    let a = &an.authority;
-    let rank = fixed(
-        keys::RANK,
-        "Axes the actuators can command independently (rank of the control-effectiveness matrix, of 4)",
-        a.rank as f64,
-        "1",
-    );
-    let mut assumptions = Vec::with_capacity(4);
-    assumptions.push(format!(
-        "Rotor positions from the {} layout; body axes x forward, y left, z up; rotors numbered clockwise from the nose seen from above.",
-        claim.rotors.layout.map_or("stated", Layout::id),
-    ));
-    assumptions.push(format!(
-        "Propeller drag torque per thrust {} of the rotor diameter ({} mm); {}.",
-        REACTIVE_TORQUE.values,
-        Sig3(an.diameter.get::<millimeter>()),
-        REACTIVE_TORQUE.basis,
-    ));
-    assumptions.push(
-        "Tilt actuators linearised at hover, each rotor carrying an equal share of the weight."
-            .to_string(),
-    );
-    let sources: &[&str] = &["du-2015", "statics"];
-
-    // 1. Rank: an axis no actuator can command cannot be held at any thrust.
-    if a.rank < 4 {
-        return Finding {
-            rule: ID,
-            verdict: Verdict::Impossible,
-            headline: format!(
-                "Its actuators cannot command {} independently: {}. Without control of every axis it cannot hold a hover.",
-                axes(&a.lacking),
-                WhyRank(a),
-            ),
-            figures: vec![rank],
-            would_take: format!("It would take {}.", fix_for_rank(claim, a)),
-            assumptions,
-            sources,
-        };
-    }
-    let Some(thrust) = an.thrust else {
-        let mut f = Finding::not_assessed(ID, NEEDS_THRUST);
-        f.headline = format!(
-            "Its actuators can command all four axes, but the margin is not assessed: the sheet does not give {NEEDS_THRUST}."
-        );
-        f.figures.push(rank);
-        return f;
-    };
-
-    if !an.affordable(3) {
-        let mut f = Finding::not_assessed(
-            ID,
-            "fewer actuators (this screen searches up to about 40 rotor thrusts and tilts)",
-        );
-        f.headline = "Its actuators can command all four axes; the margin is not assessed: it has more actuators than this screen searches.".to_string();
-        f.would_take = SEARCH_LIMIT.to_string();
-        f.figures.push(rank);
-        return f;
-    }
-
-    // 2. ACAI with rotors lost and intact, per tier.
-    let claimed = claim.claim.survives_rotor_failure as usize;
-    let searched = failure_search(claim, n);
-    let table = an.failures(searched);
-    if claimed > searched || (claimed > 0 && table.is_none()) {
-        let mut f = Finding::not_assessed(ID, "a craft small enough to search every combination of lost rotors (up to four lost, about 16 rotors)");
-        f.headline = format!(
-            "Not assessed: the claim to survive {claimed} lost rotors needs more combinations searched than this screen does."
-        );
-        f.would_take = SEARCH_LIMIT.to_string();
-        f.figures.push(rank);
-        return f;
-    }
-    let searched = if table.is_some() { searched } else { 0 };
-    let intact = PerTier::from_fn(|t| an.acai(t, &[]).unwrap_or(f64::NAN));
-    let table = table.unwrap_or_default();
-    let claimed_sets = || table.iter().filter(|(s, _)| s.len() <= claimed);
-    let passes = |t: Tier| {
-        intact[t] > an.margin(t, &[]) && claimed_sets().all(|(s, v)| v[t] > an.margin(t, s))
-    };
-    let fails_at = common::first_failure(passes);
-    let verdict = Verdict::failing_at(fails_at);
-
-    // The rank, the margin, and per tier the ACAI and the worst of each failure size.
-    let mut figures = Vec::with_capacity(2 + 3 * (1 + LOST_KEYS.len()));
-    figures.push(rank);
-    figures.extend(per_tier(
-        keys::ACAI,
-        "Available control authority index, intact (N and N m)",
-        "N, N m",
-        |t| intact[t],
-    ));
-    figures.push(tiered(
-        keys::MISMATCH_MOMENT,
-        "Moment of a typical thrust mismatch, the margin the ACAI must clear",
-        Tier::Typical,
-        an.margin(Tier::Typical, &[]),
-        "N m",
-    ));
-    let worst = |size: usize, t: Tier| {
-        table
-            .iter()
-            .filter(|(s, _)| s.len() == size)
-            .min_by(|a, b| a.1[t].total_cmp(&b.1[t]))
-    };
-    for (size, key) in LOST_KEYS.iter().enumerate().map(|(i, k)| (i + 1, *k)) {
-        for t in Tier::ALL {
-            if let Some((s, v)) = worst(size, t) {
-                let label = match size {
-                    1 => format!("ACAI with the worst rotor lost ({})", RotorList(s)),
-                    _ => format!("ACAI with the worst {size} rotors lost ({})", RotorList(s)),
-                };
-                figures.push(tiered(key, label, t, v[t], "N, N m"));
-            }
-        }
-    }
-    figures.retain(|f: &Figure| f.value.is_finite());
-
-    // 3. The words.
-    let at = |t: Tier| Sig3(intact[t]);
-    let lifts = |t: Tier| thrust[t] * n as f64 >= an.weight;
-    let first_bad_set = |t: Tier| claimed_sets().find(|(s, v)| v[t] <= an.margin(t, s));
-    let intact_fails = |t: Tier| intact[t] <= an.margin(t, &[]);
-    let (headline, would_take) = match fails_at {
-        Some(t) if intact_fails(t) && !lifts(t) => (
-            format!(
-                "Its rotors cannot lift it even at full thrust ({}), so nothing is left to steer with (see thrust-margin).",
-                tier_phrase(t),
-            ),
-            "It would take more thrust per rotor or more rotors (see thrust-margin).".to_string(),
-        ),
-        Some(Tier::Typical) if intact[Tier::Typical] <= 0.0 => (
-            format!(
-                "With typical rotors it cannot make every moment a hover needs (ACAI {}); only better-than-typical ones give it control.",
-                at(Tier::Typical),
-            ),
-            "It would take rotors with more thrust to spare (hovering well below full thrust), or longer arms.".to_string(),
-        ),
-        Some(Tier::Typical) if intact_fails(Tier::Typical) => (
-            format!(
-                "Its control margin in hover (ACAI {} with typical rotors) is smaller than the {} N m of a typical {} % thrust mismatch between rotors: a worn propeller or a gust could tip it.",
-                at(Tier::Typical),
-                Sig3(an.margin(Tier::Typical, &[])),
-                (100.0 * THRUST_MISMATCH.at(Tier::Typical)).round(),
-            ),
-            "It would take rotors with more thrust to spare (hovering well below full thrust), or longer arms.".to_string(),
-        ),
-        Some(t) if intact_fails(t) => (
-            format!(
-                "Even at full thrust from {} rotors it cannot make every moment a hover needs (ACAI {} {}).",
-                if t == Tier::PhysicalLimit { "perfect" } else { "the best" },
-                at(t),
-                tier_phrase(t),
-            ),
-            "It would take rotors with more thrust to spare, longer arms, or rotors of both spin directions spread around the centre of mass.".to_string(),
-        ),
-        Some(t) => {
-            let (set, v) = first_bad_set(t).map_or((&[][..], 0.0), |(s, v)| (&s[..], v[t]));
-            (
-                format!(
-                    "It is said to keep flying after losing {claimed} {}, but with {} lost the rest {} (ACAI {} {}).",
-                    if claimed > 1 { "rotors" } else { "rotor" },
-                    RotorList(set),
-                    if v <= 0.0 { "cannot make every moment a hover needs" } else { "have too little control to spare" },
-                    Sig3(v),
-                    tier_phrase(t),
-                ),
-                "It would take six or more rotors with thrust to spare and a failure-tolerant spin pattern (for six, P P N N P N: Du et al. 2015), or no claim of rotor-failure tolerance.".to_string(),
-            )
-        }
-        None => {
-            let single = worst(1, Tier::Typical);
-            let after: Cow<str> = match (claimed, single) {
-                (0, Some((s, v))) if v[Tier::Typical] <= 0.0 => {
-                    format!(" Losing {} would leave it without control.", RotorList(s)).into()
-                }
-                (0, Some(_)) => " It could keep flying after losing any one rotor.".into(),
-                (k, _) if k > 0 => format!(" It keeps control after losing any {k}.").into(),
-                _ => "".into(),
-            };
-            (
-                format!(
-                    "Its rotors can command thrust, roll, pitch and yaw with margin (ACAI {} with typical rotors, against {} N m of a typical thrust mismatch).{after}",
-                    at(Tier::Typical),
-                    Sig3(an.margin(Tier::Typical, &[])),
-                ),
-                "Nothing: its actuators hold a hover with control to spare.".to_string(),
-            )
-        }
-    };
-    assumptions.push(format!(
-        "Rotor thrust between zero and the thrust-margin estimate at each tier; a lost rotor gives none. Failure sets searched: up to {searched} {} lost at once.",
-        if searched == 1 { "rotor" } else { "rotors" },
-    ));
-    Finding {
-        rule: ID,
-        verdict,
-        headline,
-        figures,
-        would_take,
-        assumptions,
-        sources,
-    }
-}
-
-/// One rotor as the top view draws it.
-#[derive(Debug, Clone, PartialEq, Serialize)]
-pub struct RotorView {
-    /// As the report numbers it, from 1.
-    pub number: usize,
-    pub x_mm: f64,
-    pub y_mm: f64,
-    pub z_mm: f64,
-    pub spin: &'static str,
-    pub tilts: bool,
-    pub lost: bool,
-}
-
-/// What the web layer draws: the rotors (with `lost` ones marked) and the
-/// axes the remaining actuators cannot command.
-#[derive(Debug, Clone, PartialEq, Serialize)]
-pub struct LayoutView {
-    pub rotors: Vec<RotorView>,
-    pub rank: usize,
-    pub lacking: Vec<Axis>,
-}
-
-/// The top view of the claim's rotors with the rotors numbered in `lost` (from 1) stopped.
-pub fn layout_view(claim: &Claim, lost: &[usize]) -> Option<LayoutView> {
-    let an = analyse(claim).ok()?;
-    let lost: Vec<usize> = lost.iter().filter_map(|i| i.checked_sub(1)).collect();
-    if lost.is_empty() {
-        return Some(view_of(&an, &lost, &an.authority));
-    }
-    let share = an.weight / an.placements.len() as f64;
-    let e = control::effectiveness(&an.placements, share, an.torque_ratio(Tier::Typical));
-    Some(view_of(&an, &lost, &control::authority(&e.without(&lost))))
-}
-
-/// The top view of an analysis, `lost` (indices from 0) marked, with the
-/// authority of the rotors left.
-fn view_of(an: &Analysis, lost: &[usize], authority: &Authority) -> LayoutView {
-    LayoutView {
-        rotors: an
-            .placements
-            .iter()
-            .enumerate()
-            .map(|(i, p)| RotorView {
-                number: i + 1,
-                x_mm: p.x.get::<millimeter>(),
-                y_mm: p.y.get::<millimeter>(),
-                z_mm: p.z.get::<millimeter>(),
-                spin: match p.spin {
-                    Spin::Cw => "cw",
-                    Spin::Ccw => "ccw",
-                },
-                tilts: p.tilt.is_some(),
-                lost: lost.contains(&i),
-            })
-            .collect(),
-        rank: authority.rank,
-        lacking: authority.lacking.clone(),
-    }
-}
-
-/// The single rotor (numbered from 1) whose loss leaves the least control
-/// authority at the typical tier, with the ACAI at each tier after losing it
-/// (Du, Quan, Yang, Cai 2015: below zero, hover cannot be held). `None` when
-/// the rule could not search failures (no thrust estimate, too many actuators).
-pub fn worst_single_loss(claim: &Claim) -> Option<(usize, [f64; 3])> {
-    let an = analyse(claim).ok()?;
-    an.thrust?;
-    an.failures(1)?
-        .into_iter()
-        .filter(|(_, acai)| acai.iter().all(|a| a.is_finite()))
-        .min_by(|a, b| a.1[Tier::Typical].total_cmp(&b.1[Tier::Typical]))
-        // In tier order, as the drawings of the web layer read it.
-        .map(|(lost, acai)| {
-            (
-                lost[0] + 1,
-                [acai.physical_limit, acai.best_practice, acai.typical],
-            )
-        })
 }
 
 #[cfg(test)]
@@ -759,20 +888,155 @@ mod tests {
     }
 
     #[test]
-    fn the_layout_view_marks_lost_rotors_and_the_axes_they_take_away() {
+    fn the_analysis_holds_the_placements_and_the_failure_table_the_finding_reports() {
         let quad = sheet(
             "layout = \"quad-x\"\narm = \"225 mm\"\nmax_thrust = \"600 g\"",
             "",
         );
-        let view = layout_view(&quad, &[]).unwrap();
-        assert_eq!((view.rotors.len(), view.rank), (4, 4));
-        assert!((view.rotors[0].x_mm - 159.1).abs() < 0.1 && view.rotors[0].y_mm < 0.0);
-        let two_lost = layout_view(&quad, &[1, 3]).unwrap();
-        assert!(two_lost.rotors[0].lost && !two_lost.rotors[1].lost);
-        assert_eq!(two_lost.rank, 2);
-        assert!(!two_lost.lacking.is_empty());
-        let json = serde_json::to_value(&view).unwrap();
-        assert_eq!(json["rotors"][0]["spin"], "cw");
+        let (finding, an) = checked(&quad);
+        let an = an.unwrap();
+        // Plane geometry: rotor 1 at 45 deg, x = 225 / sqrt 2 = 159.1 mm, y negative (REP 103).
+        assert!((an.givens.placements[0].x.get::<millimeter>() - 159.1).abs() < 0.1);
+        assert!(an.givens.placements[0].y.get::<millimeter>() < 0.0);
+        assert_eq!(an.authority.rank, 4);
+        assert_eq!(an.verdict, finding.verdict);
+        // du-2015: a quadrotor that loses any rotor has ACAI < 0; the drawing's worst
+        // loss is the one the finding reports.
+        let worst = an.worst_single_loss().unwrap();
+        assert!(worst.acai[Tier::Typical] < 0.0);
+        let reported = finding
+            .figure(keys::ACAI_ONE_ROTOR_LOST, Some(Tier::Typical))
+            .unwrap();
+        assert_eq!(reported.value, worst.acai[Tier::Typical]);
+        assert!(reported
+            .label
+            .contains(&format!("rotor {}", worst.lost[0] + 1)));
+    }
+
+    #[test]
+    fn a_stated_power_of_1e_minus_200_w_is_judged_not_a_crash() {
+        // issue 16, the crash sheet: no usable thrust column. Momentum theory
+        // (T <= (2 rho A)^(1/3) P^(2/3)) gives about 1e-133 N per rotor, far below
+        // the weight, so no tier can hold a hover: impossible, with finite figures.
+        let f = check(&sheet(
+            "layout = \"quad-x\"\narm = \"200 mm\"\nmax_power = \"1e-200 W\"",
+            "[claim]\nsurvives_rotor_failure = 1",
+        ));
+        assert_eq!(f.verdict, Verdict::Impossible, "{}", f.headline);
+        assert!(f.headline.contains("cannot lift it"), "{}", f.headline);
+        assert!(f.figures.iter().all(|g| g.value.is_finite()));
+    }
+
+    #[test]
+    fn extreme_magnitudes_never_panic_and_every_figure_is_finite() {
+        // issue 16: 1e-300 to 1e300 (and the least subnormal) in the stated power,
+        // thrust, arm, diameter and mass, on several layouts, through every rule.
+        // A value the sheet reader refuses is a field error, which is fine.
+        let layouts = [
+            "layout = \"quad-x\"",
+            "layout = \"hex\"\nspins = [\"cw\", \"cw\", \"ccw\", \"ccw\", \"cw\", \"ccw\"]",
+            "layout = \"tri\"",
+            "layout = \"side-by-side\"\nmount = \"tilting\"\ntilt_range = \"30 deg\"\nheight = \"40 mm\"",
+            "layout = \"coaxial\"",
+            "layout = \"custom\"\ncount = 2\n[[rotors.at]]\nx = \"0 mm\"\ny = \"80 mm\"\nspin = \"cw\"\ntilt_axis = [0.0, 1.0, 0.0]\ntilt_range = \"20 deg\"\n[[rotors.at]]\nx = \"0 mm\"\ny = \"-80 mm\"\nspin = \"ccw\"",
+        ];
+        let values = [
+            "4.9e-324", "1e-300", "1e-200", "1e-100", "1e-30", "1e-9", "1e-3", "1", "1e3", "1e9",
+            "1e30", "1e100", "1e200", "1e300",
+        ];
+        let fields = [
+            ("max_power", "W"),
+            ("max_thrust", "N"),
+            ("arm", "m"),
+            ("diameter", "m"),
+            ("mass", "kg"),
+        ];
+        let mut checked_sheets = 0;
+        for layout in layouts {
+            for (field, unit) in fields {
+                for v in values {
+                    let value = |f: &str, usual: &str| {
+                        if f == field {
+                            format!("{v} {unit}")
+                        } else {
+                            usual.to_string()
+                        }
+                    };
+                    let (head, tail) = layout.split_once("\n[[").unwrap_or((layout, ""));
+                    let tail = if tail.is_empty() {
+                        String::new()
+                    } else {
+                        format!("[[{tail}\n")
+                    };
+                    let text = format!(
+                        "title = \"t\"\n[claim]\nsurvives_rotor_failure = 1\nhover_tilt = \"10 deg\"\n[craft]\nmass = \"{}\"\n[rotors]\n{head}\narm = \"{}\"\ndiameter = \"{}\"\nmax_power = \"{}\"\nmax_thrust = \"{}\"\n{tail}",
+                        value("mass", "1 kg"),
+                        value("arm", "0.2 m"),
+                        value("diameter", "0.25 m"),
+                        value("max_power", "100 W"),
+                        value("max_thrust", "6 N"),
+                    );
+                    let Ok(claim) = parse(&text, Format::Toml) else {
+                        continue;
+                    };
+                    checked_sheets += 1;
+                    let report = crate::rules::run_all(&claim);
+                    for f in &report.findings {
+                        assert!(
+                            f.figures.iter().all(|g| g.value.is_finite()),
+                            "{field} = {v}: {} {:?}",
+                            f.rule,
+                            f.figures
+                        );
+                    }
+                }
+            }
+        }
+        // The tiny values all read (only the ones above each field's range are refused).
+        assert!(
+            checked_sheets > layouts.len() * fields.len() * 7,
+            "{checked_sheets}"
+        );
+    }
+
+    #[test]
+    fn the_tilt_spent_holding_a_body_tilt_is_taken_out_of_the_control_range() {
+        // issue 15: a tilting mount holding a claimed body tilt has only the rest of its
+        // range for control. du-2015: with both rotors at their stop the hover point is
+        // on the boundary of the attainable set (ACAI 0), so no tier can hold it.
+        let bicopter = "layout = \"side-by-side\"\narm = \"200 mm\"\nmax_thrust = \"900 g\"\nmount = \"tilting\"\ntilt_range = \"30 deg\"\nheight = \"60 mm\"";
+        let at = |tilt: f64| {
+            check(&sheet(
+                bicopter,
+                &format!("[claim]\nhover_tilt = \"{tilt} deg\""),
+            ))
+        };
+        let (level, some, all) = (at(0.0), at(20.0), at(30.0));
+        assert!(acai(&level, Tier::PhysicalLimit) > acai(&some, Tier::PhysicalLimit));
+        assert!(acai(&some, Tier::PhysicalLimit) > 0.0, "{}", some.headline);
+        assert!(some
+            .assumptions
+            .iter()
+            .any(|a| a.contains("10.0 deg of the 30.0 deg range is left")));
+        assert_eq!(all.verdict, Verdict::Impossible, "{}", all.headline);
+        assert!(acai(&all, Tier::PhysicalLimit) <= 0.0);
+        assert!(
+            all.headline.contains("Holding the 30.0 deg body tilt"),
+            "{}",
+            all.headline
+        );
+        assert!(
+            all.would_take.contains("rotors.tilt_range"),
+            "{}",
+            all.would_take
+        );
+        // A fixed mount spends nothing on a body tilt (that is the tilt rule's to judge).
+        let fixed_quad = "layout = \"quad-x\"\narm = \"225 mm\"\nmax_thrust = \"600 g\"";
+        let tilted = check(&sheet(fixed_quad, "[claim]\nhover_tilt = \"20 deg\""));
+        assert_eq!(
+            acai(&tilted, Tier::Typical),
+            acai(&check(&sheet(fixed_quad, "")), Tier::Typical)
+        );
     }
 
     #[test]

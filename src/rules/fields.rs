@@ -39,7 +39,7 @@ const THRUST_ESTIMATE: &[&str] = &[
     "rotors.max_power",
 ];
 
-/// `control::placements`: where the rotors sit, how they spin and tilt.
+/// `geometry::placements`: where the rotors sit, how they spin and tilt.
 const PLACEMENTS: &[&str] = &[
     "rotors.count",
     "rotors.layout",

@@ -1,11 +1,13 @@
 //! The physics rules. Each takes a [`Claim`] and returns a [`Finding`]; the
 //! registry lists them in report order. Rules are pure: no I/O, no globals,
-//! no panics.
+//! no panics. [`geometry`] reads the sheet's rotors into the plain geometry
+//! the physics takes.
 
 pub mod common;
 pub mod control_authority;
 pub mod energy_budget;
 pub mod fields;
+pub mod geometry;
 pub mod sensing;
 pub mod sheet_consistency;
 pub mod thrust_margin;
@@ -54,23 +56,33 @@ pub fn run_all(claim: &Claim) -> Report {
     .with_unused(fields::unused(claim))
 }
 
-/// [`run_all`], and the top view of the rotors that the control-authority
-/// rule worked out on the way ([`control_authority::check_with_view`]), for
-/// the verdict page, which draws it.
-pub fn run_all_with_layout(claim: &Claim) -> (Report, Option<control_authority::LayoutView>) {
-    let mut layout = None;
+/// A checked claim: the report, and the control analysis the
+/// control-authority rule worked out for it (when the sheet allowed one),
+/// which the verdict page's rotor drawings read.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Checked {
+    pub report: Report,
+    pub control: Option<control_authority::Analysis>,
+}
+
+/// Runs every rule, as [`run_all`] does, and keeps the control analysis
+/// beside the report, so that nothing works it out a second time.
+pub fn check(claim: &Claim) -> Checked {
+    let mut control = None;
     let findings = REGISTRY
         .iter()
         .map(|r| {
             if r.id == control_authority::ID {
-                let (finding, view) = control_authority::check_with_view(claim);
-                layout = view;
+                let (finding, analysis) = control_authority::checked(claim);
+                control = analysis;
                 finding
             } else {
                 (r.check)(claim)
             }
         })
         .collect();
-    let report = Report::new(claim.title.clone(), findings).with_unused(fields::unused(claim));
-    (report, layout)
+    Checked {
+        report: Report::new(claim.title.clone(), findings).with_unused(fields::unused(claim)),
+        control,
+    }
 }

@@ -16,9 +16,10 @@ use uom::si::{
 };
 
 use super::common::{self, fixed, per_tier};
+use super::geometry;
 use crate::catalog::tiers::{ACCEL_BIAS, GYRO_DRIFT, LEVEL_ERROR, THRUST_MISMATCH};
 use crate::claim::{Claim, PositionSensor};
-use crate::physics::{body, control};
+use crate::physics::body;
 use crate::report::{keys, Figure, Finding, Sig3, Verdict};
 use crate::tier::{PerTier, Tier};
 
@@ -61,7 +62,7 @@ struct Tipping {
 fn tipping(claim: &Claim) -> Option<Tipping> {
     let m = claim.craft.mass;
     let zero = Length::new::<meter>(0.0);
-    let placed = control::placements(&claim.rotors);
+    let placed = geometry::placements(&claim.rotors);
     // Largest lever about the roll (x) axis is the largest |y|, about pitch the largest |x|.
     let (roll_lever, pitch_lever) = match (&placed, claim.rotors.arm) {
         (Some(p), _) if p.len() >= 2 => (

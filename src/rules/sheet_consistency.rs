@@ -34,10 +34,11 @@ use uom::si::f64::{Length, Mass, Pressure};
 use uom::si::{length::millimeter, mass::gram, pressure::hectopascal};
 
 use super::common::fixed;
+use super::geometry;
 use crate::catalog::{Basis, MotorClass};
 use crate::claim::{Claim, Layout};
 use crate::physics::atmosphere;
-use crate::physics::control::{self, Placement};
+use crate::physics::control::Placement;
 use crate::report::{keys, Finding, Sig3, Verdict};
 
 pub const ID: &str = "sheet-consistency";
@@ -257,7 +258,7 @@ pub fn solve(claim: &Claim) -> Solution {
     if let (Some(class), Some(diameter)) = (r.motor, r.diameter) {
         checks.push(Check::Propeller { class, diameter });
     }
-    let placed = control::placements(r);
+    let placed = geometry::placements(r);
     let mut reach = None;
     if let (Some(placed), Some(diameter)) = (&placed, r.diameter) {
         let by_hand = r.layout == Some(Layout::Custom);

@@ -10,12 +10,13 @@
 use std::fmt::{self, Write};
 
 use askama::filters::{escape, Html};
+use uom::si::length::meter;
 
 use crate::catalog::tiers::{self, Tier};
 use crate::claim::{Claim, Spin};
 use crate::report::{keys, Finding, Report, Sig3};
 
-use crate::rules::control_authority::{self, LayoutView};
+use crate::rules::control_authority::Analysis;
 use crate::rules::{energy_budget, thrust_margin, tilt_equilibrium};
 
 use super::layout;
@@ -43,11 +44,11 @@ impl Drawing {
     }
 }
 
-/// Every drawing of a report, in page order.
-pub fn all(report: &Report, claim: &Claim, checked: Option<&LayoutView>) -> Vec<Drawing> {
-    // One plan for both top views, from the view the rule gave with the report
-    // where there is one (placing the rotors runs the control analysis).
-    let plan = layout::plan(claim, checked);
+/// Every drawing of a report, in page order. `control` is the control
+/// analysis that came with the report ([`rules::check`](crate::rules::check)):
+/// both top views read its rotors, and the failure view its failure table.
+pub fn all(report: &Report, claim: &Claim, control: Option<&Analysis>) -> Vec<Drawing> {
+    let plan = layout::plan(claim, control);
     [
         free_body(report, claim),
         thrust_bar(report),
@@ -55,7 +56,7 @@ pub fn all(report: &Report, claim: &Claim, checked: Option<&LayoutView>) -> Vec<
         rotor_layout(claim, plan.as_ref()),
     ]
     .into_iter()
-    .chain(rotor_failure(claim, plan.as_ref()))
+    .chain(rotor_failure(claim, plan.as_ref(), control))
     .collect()
 }
 
@@ -607,7 +608,7 @@ pub fn energy_bar(report: &Report) -> Drawing {
 }
 
 /// Top view of the rotors: positions, disc size, spin senses and numbers.
-pub fn rotor_layout(claim: &Claim, plan: Option<&layout::Plan>) -> Drawing {
+pub fn rotor_layout(claim: &Claim, plan: Option<&layout::Plan<'_>>) -> Drawing {
     const ID: &str = "fig-layout";
     const TITLE: &str = "Rotor layout, seen from above";
     let Some(plan) = plan.filter(|p| !p.rotors.is_empty()) else {
@@ -641,7 +642,7 @@ pub fn rotor_layout(claim: &Claim, plan: Option<&layout::Plan>) -> Drawing {
     if claim.rotors.spins.is_none() && claim.rotors.at.is_empty() {
         caption.push_str(" Spins are not stated; the usual alternating pattern is drawn.");
     }
-    if plan.rotors.iter().any(|r| r.tilts) {
+    if plan.rotors.iter().any(|r| r.tilt.is_some()) {
         caption.push_str(" Rotors marked \"tilts\" have a tilt actuator.");
     }
     if !plan.lacking.is_empty() {
@@ -664,15 +665,23 @@ pub fn rotor_layout(claim: &Claim, plan: Option<&layout::Plan>) -> Drawing {
 const ZERO_AUTHORITY: f64 = 1e-6;
 
 /// For a claim that it survives a rotor failure: the layout with the worst
-/// single loss stopped, and whether the rest can still hold a hover.
-pub fn rotor_failure(claim: &Claim, plan: Option<&layout::Plan>) -> Option<Drawing> {
+/// single loss stopped (from the failure table the control analysis searched),
+/// and whether the rest can still hold a hover.
+pub fn rotor_failure(
+    claim: &Claim,
+    plan: Option<&layout::Plan<'_>>,
+    control: Option<&Analysis>,
+) -> Option<Drawing> {
     const ID: &str = "fig-failure";
     const TITLE: &str = "If the worst rotor stops";
     if claim.claim.survives_rotor_failure == 0 {
         return None;
     }
     let plan = plan.filter(|p| p.rotors.len() > 1)?;
-    let Some((lost, acai)) = control_authority::worst_single_loss(claim) else {
+    let worst = control
+        .and_then(Analysis::worst_single_loss)
+        .filter(|f| f.acai.iter().all(|a| a.is_finite()));
+    let Some((lost, typical)) = worst.map(|f| (f.lost[0] + 1, f.acai[Tier::Typical])) else {
         return Some(Drawing::omitted(
             ID,
             TITLE,
@@ -680,7 +689,6 @@ pub fn rotor_failure(claim: &Claim, plan: Option<&layout::Plan>) -> Option<Drawi
         ));
     };
     let (svg, scale_note) = draw_plan(ID, TITLE, plan, Some(lost));
-    let typical = acai[2];
     // An index within rounding of zero is zero: no margin at all for some moment.
     let caption = if typical > ZERO_AUTHORITY {
         format!(
@@ -711,17 +719,22 @@ pub fn rotor_failure(claim: &Claim, plan: Option<&layout::Plan>) -> Option<Drawi
 
 /// Draws a plan from above; `lost` (numbered from 1) is drawn stopped.
 /// Returns the picture and the length its scale bar stands for.
-fn draw_plan(id: &str, title: &str, plan: &layout::Plan, lost: Option<usize>) -> (Svg, String) {
-    let reach = plan
+fn draw_plan(id: &str, title: &str, plan: &layout::Plan<'_>, lost: Option<usize>) -> (Svg, String) {
+    // Metres on the page's scale: the rotors' hubs seen from above.
+    let hubs: Vec<(f64, f64)> = plan
         .rotors
         .iter()
-        .map(|r| r.x.abs().max(r.y.abs()))
+        .map(|r| (r.x.get::<meter>(), r.y.get::<meter>()))
+        .collect();
+    let reach = hubs
+        .iter()
+        .map(|(x, y)| x.abs().max(y.abs()))
         .fold(0.0, f64::max);
     // Disc radius: the stated size, else a third of the largest arm.
-    let radius_m =
-        plan.diameter
-            .map(|d| d / 2.0)
-            .unwrap_or(if reach > 0.0 { reach / 3.0 } else { 0.05 });
+    let radius_m = plan
+        .diameter
+        .map(|d| d.get::<meter>() / 2.0)
+        .unwrap_or(if reach > 0.0 { reach / 3.0 } else { 0.05 });
     let extent = (reach + radius_m).max(1e-3);
     let (w, h) = (320.0, 320.0);
     let centre = (160.0, 165.0);
@@ -737,17 +750,14 @@ fn draw_plan(id: &str, title: &str, plan: &layout::Plan, lost: Option<usize>) ->
         true,
     );
     svg.text((centre.0 + 6.0, 16.0), face("start", 11.0, MUTED), "front");
-    let coaxial = plan.rotors.len() > 1
-        && plan
-            .rotors
-            .iter()
-            .all(|r| r.x.abs() < 1e-9 && r.y.abs() < 1e-9);
-    for r in &plan.rotors {
-        svg.line(centre, to_page(r.x, r.y), pen(INK, 4.0), false);
+    let coaxial = hubs.len() > 1 && hubs.iter().all(|(x, y)| x.abs() < 1e-9 && y.abs() < 1e-9);
+    for &(x, y) in &hubs {
+        svg.line(centre, to_page(x, y), pen(INK, 4.0), false);
     }
     svg.rect(centre.0 - 9.0, centre.1 - 9.0, 18.0, 18.0, INK, INK);
-    for (i, r) in plan.rotors.iter().enumerate() {
-        let c = to_page(r.x, r.y);
+    for (i, (r, &(x, y))) in plan.rotors.iter().zip(&hubs).enumerate() {
+        let c = to_page(x, y);
+        let tilts = r.tilt.is_some();
         let stopped = lost == Some(i + 1);
         let shrink = if coaxial { 1.0 - 0.28 * i as f64 } else { 1.0 };
         let rad = (radius_m * scale * shrink).max(6.0);
@@ -775,14 +785,14 @@ fn draw_plan(id: &str, title: &str, plan: &layout::Plan, lost: Option<usize>) ->
             (false, Spin::Cw) => "CW",
             (false, Spin::Ccw) => "CCW",
         };
-        let tilts = if r.tilts && coaxial { " tilts" } else { "" };
+        let tilt_word = if tilts && coaxial { " tilts" } else { "" };
         let label = if coaxial {
             let level = if i == 0 { "upper" } else { "lower" };
-            format!("{} {level} {spin}{tilts}", i + 1)
+            format!("{} {level} {spin}{tilt_word}", i + 1)
         } else {
             format!("{} {spin}", i + 1)
         };
-        if r.tilts && !coaxial {
+        if tilts && !coaxial {
             svg.text((c.0, c.1 + rad + 12.0), face("middle", 10.5, INK), "tilts");
         }
         let at = if coaxial {
@@ -952,7 +962,9 @@ mod tests {
         // Du, Quan, Yang, Cai (2015): a quadrotor that loses any rotor has ACAI < 0,
         // so the drawing must say the rest cannot hold a hover.
         let claim = sheet("max_thrust = \"600 g\"\n[claim]\nsurvives_rotor_failure = 1");
-        let d = rotor_failure(&claim, layout::plan(&claim, None).as_ref())
+        let checked = crate::rules::check(&claim);
+        let control = checked.control.as_ref();
+        let d = rotor_failure(&claim, layout::plan(&claim, control).as_ref(), control)
             .expect("drawn for a claimed failure");
         assert!(
             d.svg.as_ref().unwrap().contains(" stopped</text>"),
@@ -961,7 +973,15 @@ mod tests {
         );
         assert!(d.caption.contains("cannot hold a hover"), "{}", d.caption);
         let unclaimed = sheet("max_thrust = \"600 g\"");
-        assert!(rotor_failure(&unclaimed, layout::plan(&unclaimed, None).as_ref()).is_none());
+        let checked = crate::rules::check(&unclaimed);
+        let control = checked.control.as_ref();
+        assert!(control.is_some());
+        assert!(rotor_failure(
+            &unclaimed,
+            layout::plan(&unclaimed, control).as_ref(),
+            control
+        )
+        .is_none());
     }
 
     #[test]
@@ -973,7 +993,9 @@ mod tests {
                     arm = \"275 mm\"\ndiameter = \"10 in\"\nmax_thrust = \"6.125 N\"\n\
                     [claim]\nsurvives_rotor_failure = 1";
         let claim = claim::parse(text, Format::Toml).unwrap();
-        let d = rotor_failure(&claim, layout::plan(&claim, None).as_ref()).unwrap();
+        let checked = crate::rules::check(&claim);
+        let control = checked.control.as_ref();
+        let d = rotor_failure(&claim, layout::plan(&claim, control).as_ref(), control).unwrap();
         assert!(
             d.caption.contains("index (Du et al. 2015) is zero"),
             "{}",

@@ -1,84 +1,48 @@
-//! Where the rotors sit, seen from above, for the layout figure.
-//!
-//! The geometry is the control-authority rule's ([`physics::control::placements`]
-//! and [`control_authority::layout_view`]): rotor i at azimuth clockwise from
-//! the nose, as Du, Quan, Yang and Cai (2015) number their hexacopter, in body
-//! axes of ROS REP 103 (x forward, y left, z up). This module only adapts it
-//! for drawing: metres, a flag for tilting rotors, the axes the rotors cannot
-//! command, and a stand-in arm when the sheet gives none so a preset can
-//! still be drawn (marked as not to scale).
+//! Which rotors the top views draw: the placements of the control analysis
+//! that came with the report ([`rules::check`](crate::rules::check)), else,
+//! for a sheet the rule could not analyse, the same geometry
+//! ([`geometry::placements`]) with a stand-in arm when the sheet gives none,
+//! so that a preset can still be drawn (marked as not to scale). Positions
+//! stay `uom` lengths here; the drawing converts them where it draws.
+
+use std::borrow::Cow;
 
 use uom::si::f64::Length;
-use uom::si::length::{meter, millimeter};
+use uom::si::length::millimeter;
 
-use crate::claim::{Claim, Spin};
-use crate::physics::control::{self, Axis};
-use crate::rules::control_authority::{self, LayoutView};
+use crate::claim::Claim;
+use crate::physics::control::{Axis, Placement};
+use crate::rules::control_authority::Analysis;
+use crate::rules::geometry;
 
-/// One rotor in body axes, metres.
-#[derive(Debug, Clone, Copy, PartialEq)]
-pub struct Placed {
-    /// Forward of the centre of mass.
-    pub x: f64,
-    /// Left of the centre of mass.
-    pub y: f64,
-    /// Above the centre of mass (a coaxial pair differs only here).
-    pub z: f64,
-    pub spin: Spin,
-    /// Has a tilt actuator (a tilting mount, a tricopter's tail servo).
-    pub tilts: bool,
-}
-
-/// The rotors of a claim, placed.
+/// The rotors of a claim as the top views draw them.
 #[derive(Debug, Clone, PartialEq)]
-pub struct Plan {
-    pub rotors: Vec<Placed>,
-    /// Propeller diameter, metres, when the sheet or its motor class gives one.
-    pub diameter: Option<f64>,
+pub struct Plan<'a> {
+    /// In body axes (x forward, y left, z up), numbered as the report numbers them.
+    pub rotors: Cow<'a, [Placement]>,
+    /// Propeller diameter, when the sheet or its motor class gives one.
+    pub diameter: Option<Length>,
     /// The arm was not stated: distances are drawn to [`STAND_IN_ARM_MM`].
     pub arm_assumed: bool,
     /// Axes the rotors cannot command at hover, when the rule could tell.
-    pub lacking: Vec<Axis>,
+    pub lacking: &'a [Axis],
 }
 
 /// Arm used to draw a preset layout whose sheet gives no arm.
 pub const STAND_IN_ARM_MM: f64 = 100.0;
 
-/// Places the rotors of a claim; `None` when the sheet does not say how they
-/// are arranged (a rotor count with no usual layout and no positions).
-/// `checked` is the view the control-authority rule gave with the report
-/// ([`rules::run_all_with_layout`](crate::rules::run_all_with_layout));
-/// without it the rule's analysis runs here.
-pub fn plan(claim: &Claim, checked: Option<&LayoutView>) -> Option<Plan> {
+/// The rotors to draw: the analysis's where there is one; `None` when the
+/// sheet does not say how they are arranged (a rotor count with no usual
+/// layout and no positions).
+pub fn plan<'a>(claim: &Claim, control: Option<&'a Analysis>) -> Option<Plan<'a>> {
     let rotors = &claim.rotors;
-    let diameter = rotors
-        .diameter
-        .or(rotors.motor.map(|m| m.usual_prop()))
-        .map(|d| d.get::<meter>());
-    let analysed;
-    let view = match checked {
-        Some(view) => Some(view),
-        None => {
-            analysed = control_authority::layout_view(claim, &[]);
-            analysed.as_ref()
-        }
-    };
-    if let Some(view) = view {
+    let diameter = rotors.diameter.or(rotors.motor.map(|m| m.usual_prop()));
+    if let Some(an) = control {
         return Some(Plan {
-            rotors: view
-                .rotors
-                .iter()
-                .map(|r| Placed {
-                    x: r.x_mm / 1000.0,
-                    y: r.y_mm / 1000.0,
-                    z: r.z_mm / 1000.0,
-                    spin: if r.spin == "ccw" { Spin::Ccw } else { Spin::Cw },
-                    tilts: r.tilts,
-                })
-                .collect(),
+            rotors: Cow::Borrowed(&an.givens.placements),
             diameter,
             arm_assumed: false,
-            lacking: view.lacking.clone(),
+            lacking: &an.authority.lacking,
         });
     }
     let mut stand_in = rotors.clone();
@@ -86,48 +50,19 @@ pub fn plan(claim: &Claim, checked: Option<&LayoutView>) -> Option<Plan> {
     if arm_assumed {
         stand_in.arm = Some(Length::new::<millimeter>(STAND_IN_ARM_MM));
     }
-    let placements = control::placements(&stand_in)?;
     Some(Plan {
-        rotors: placements
-            .iter()
-            .map(|p| Placed {
-                x: p.x.get::<meter>(),
-                y: p.y.get::<meter>(),
-                z: p.z.get::<meter>(),
-                spin: p.spin,
-                tilts: p.tilt.is_some(),
-            })
-            .collect(),
+        rotors: Cow::Owned(geometry::placements(&stand_in)?),
         diameter,
         arm_assumed: arm_assumed && stand_in.count > 1,
-        lacking: Vec::new(),
+        lacking: &[],
     })
 }
 
 #[cfg(test)]
 mod tests {
     use super::*;
-    use crate::claim::{self, Format};
-
-    fn plan_of(claim: &Claim) -> Option<Plan> {
-        plan(claim, None)
-    }
-
-    #[test]
-    fn the_view_the_rule_gives_with_the_report_plans_as_the_rule_run_here_does() {
-        for d in crate::claim::demo::DEMOS {
-            let claim = claim::parse_any(d.text).unwrap();
-            let (report, view) = crate::rules::run_all_with_layout(&claim);
-            assert_eq!(report, crate::rules::run_all(&claim), "{}", d.name);
-            assert_eq!(
-                view,
-                control_authority::layout_view(&claim, &[]),
-                "{}",
-                d.name
-            );
-            assert_eq!(plan(&claim, view.as_ref()), plan_of(&claim), "{}", d.name);
-        }
-    }
+    use crate::claim::{self, Format, Spin};
+    use uom::si::length::meter;
 
     fn claim_of(sheet_rotors: &str) -> Claim {
         let text = format!("title = \"t\"\n[craft]\nmass = \"300 g\"\n[rotors]\n{sheet_rotors}\n");
@@ -135,56 +70,49 @@ mod tests {
     }
 
     #[test]
-    fn a_quad_x_puts_each_rotor_on_a_diagonal_at_arm_over_root_two() {
-        // Plane geometry: a point at distance d and azimuth 45 deg has both
-        // coordinates d / sqrt(2); rotor 1 is front right (y negative, REP 103).
-        let plan = plan_of(&claim_of("layout = \"quad-x\"\narm = \"100 mm\"")).unwrap();
-        let s = 0.1 / 2f64.sqrt();
-        let expect = [(s, -s), (-s, -s), (-s, s), (s, s)];
-        assert_eq!(plan.rotors.len(), 4);
-        for (r, (x, y)) in plan.rotors.iter().zip(expect) {
-            assert!((r.x - x).abs() < 1e-9 && (r.y - y).abs() < 1e-9, "{r:?}");
+    fn the_plan_is_the_analysis_that_came_with_the_report() {
+        for d in crate::claim::demo::DEMOS {
+            let claim = claim::parse_any(d.text).unwrap();
+            let checked = crate::rules::check(&claim);
+            assert_eq!(checked.report, crate::rules::run_all(&claim), "{}", d.name);
+            let Some(an) = checked.control.as_ref() else {
+                continue;
+            };
+            let plan = plan(&claim, Some(an)).unwrap();
+            assert!(matches!(plan.rotors, Cow::Borrowed(_)), "{}", d.name);
+            assert_eq!(plan.rotors.len(), an.givens.placements.len());
+            assert_eq!(plan.lacking, an.authority.lacking.as_slice());
         }
-        assert!(!plan.arm_assumed);
     }
 
     #[test]
     fn a_preset_without_an_arm_is_drawn_to_the_stand_in_arm_and_flagged() {
-        let plan = plan_of(&claim_of(
-            "layout = \"side-by-side\"\nspins = [\"ccw\", \"cw\"]",
-        ))
-        .unwrap();
+        let claim = claim_of("layout = \"side-by-side\"\nspins = [\"ccw\", \"cw\"]");
+        let plan = plan(&claim, None).unwrap();
         assert!(plan.arm_assumed);
-        assert!((plan.rotors[0].y + STAND_IN_ARM_MM / 1000.0).abs() < 1e-9);
-        assert!(plan.rotors[1].y > 0.0);
+        let y = |i: usize| plan.rotors[i].y.get::<meter>();
+        assert!((y(0) + STAND_IN_ARM_MM / 1000.0).abs() < 1e-9);
+        assert!(y(1) > 0.0);
         assert_eq!(plan.rotors[0].spin, Spin::Ccw);
     }
 
     #[test]
     fn a_count_with_no_usual_layout_is_not_placed() {
-        assert!(plan_of(&claim_of("count = 5")).is_none());
-    }
-
-    #[test]
-    fn a_quad_that_loses_any_rotor_cannot_hold_hover() {
-        // Du, Quan, Yang, Cai (2015): a quadrotor that loses any rotor has ACAI < 0.
-        let claim = claim_of(
-            "layout = \"quad-x\"\narm = \"225 mm\"\ndiameter = \"10 in\"\nmax_thrust = \"600 g\"",
-        );
-        let (rotor, acai) = control_authority::worst_single_loss(&claim).unwrap();
-        assert!((1..=4).contains(&rotor));
-        assert!(acai[2] < 0.0, "{acai:?}");
+        assert!(plan(&claim_of("count = 5"), None).is_none());
     }
 
     #[test]
     fn custom_positions_are_kept() {
-        let plan = plan_of(&claim_of(
+        let claim = claim_of(
             "layout = \"custom\"\ncount = 2\n\
              [[rotors.at]]\nx = \"30 mm\"\ny = \"0 mm\"\nz = \"0 mm\"\nspin = \"ccw\"\n\
              [[rotors.at]]\nx = \"-30 mm\"\ny = \"10 mm\"\nz = \"0 mm\"\nspin = \"ccw\"",
-        ))
-        .unwrap();
-        assert!((plan.rotors[1].x + 0.03).abs() < 1e-9 && (plan.rotors[1].y - 0.01).abs() < 1e-9);
+        );
+        let plan = plan(&claim, None).unwrap();
+        let r = plan.rotors[1];
+        assert!(
+            (r.x.get::<meter>() + 0.03).abs() < 1e-9 && (r.y.get::<meter>() - 0.01).abs() < 1e-9
+        );
         assert!(plan.rotors.iter().all(|r| r.spin == Spin::Ccw));
     }
 }

@@ -118,8 +118,8 @@ impl AppState {
             .iter()
             .filter_map(|d| match claim::parse(d.text, claim::Format::Toml) {
                 Ok(claim) => {
-                    let report = rules::run_all(&claim);
-                    let page = match pages::demo_page(d, &claim, &report) {
+                    let checked = rules::check(&claim);
+                    let page = match pages::demo_page(d, &claim, &checked) {
                         Ok(html) => Some(Bytes::from(html)),
                         Err(e) => {
                             tracing::error!(demo = d.name, error = %e, "demo page does not render");
@@ -129,7 +129,7 @@ impl AppState {
                     Some(LoadedDemo {
                         demo: d,
                         claim,
-                        report,
+                        report: checked.report,
                         page,
                     })
                 }

@@ -224,10 +224,10 @@ pub async fn check(
 }
 
 /// The verdict page of a claim: the rules run once for the report and the
-/// rotors' top view.
+/// control analysis the rotor drawings read.
 fn verdict(claim: &claim::Claim, downloads: Downloads) -> Result<Response, Error> {
-    let (report, layout) = rules::run_all_with_layout(claim);
-    let page = VerdictPage::new(&report, claim, layout.as_ref(), downloads);
+    let checked = rules::check(claim);
+    let page = VerdictPage::new(&checked.report, claim, checked.control.as_ref(), downloads);
     Ok(Html(page.render()?).into_response())
 }
 
@@ -236,14 +236,14 @@ fn verdict(claim: &claim::Claim, downloads: Downloads) -> Result<Response, Error
 pub fn demo_page(
     d: &'static demo::Demo,
     claim: &claim::Claim,
-    report: &crate::report::Report,
+    checked: &rules::Checked,
 ) -> Result<String, askama::Error> {
     let downloads = Downloads {
         demo: Some(d.name),
         sheet: d.text.to_string(),
         note: None,
     };
-    VerdictPage::new(report, claim, None, downloads).render()
+    VerdictPage::new(&checked.report, claim, checked.control.as_ref(), downloads).render()
 }
 
 /// `GET /demo/{name}`: a demo's verdict page, checked and rendered at
@@ -255,7 +255,8 @@ pub async fn demo(
     let d = state.demo(&name).ok_or(Error::NotFound)?;
     match &d.page {
         Some(html) => Ok(Html(html.clone()).into_response()),
-        None => Ok(Html(demo_page(d.demo, &d.claim, &d.report)?).into_response()),
+        // Only when the page did not render at start-up: check it again to show why.
+        None => Ok(Html(demo_page(d.demo, &d.claim, &rules::check(&d.claim))?).into_response()),
     }
 }
 

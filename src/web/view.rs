@@ -12,7 +12,7 @@ use axum::http::StatusCode;
 use crate::catalog::tiers::{self, Tier};
 use crate::claim::Claim;
 use crate::report::{Figure, Finding, Report, Sig3, Verdict};
-use crate::rules::{self, control_authority::LayoutView};
+use crate::rules::{self, control_authority::Analysis};
 use crate::sources::{self, Source};
 
 use super::figures::{self, Drawing};
@@ -265,12 +265,12 @@ pub struct VerdictPage<'a> {
 }
 
 impl<'a> VerdictPage<'a> {
-    /// The page of a report; `layout` is the rotors' top view the rules gave
-    /// with it, if they did ([`rules::run_all_with_layout`]).
+    /// The page of a report; `control` is the control analysis the rules
+    /// gave with it ([`rules::check`]), which the rotor drawings read.
     pub fn new(
         report: &'a Report,
         claim: &'a Claim,
-        layout: Option<&LayoutView>,
+        control: Option<&Analysis>,
         downloads: Downloads,
     ) -> VerdictPage<'a> {
         VerdictPage {
@@ -280,7 +280,7 @@ impl<'a> VerdictPage<'a> {
             summary: summary(report),
             unused: &report.unused,
             findings: report.findings.iter().map(FindingView::of).collect(),
-            drawings: figures::all(report, claim, layout),
+            drawings: figures::all(report, claim, control),
             tiers: Tier::ALL.map(|t| t.label()),
             cautions: report.cautions,
             engine: report.engine,
