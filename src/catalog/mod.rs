@@ -289,7 +289,7 @@ pub const CHEMISTRIES: &[Chemistry] = &[
     },
     Chemistry {
         id: "li-ion",
-        label: "lithium-ion cylindrical or prismatic cells",
+        label: "lithium-ion",
         nominal_v: 3.6,
         full_v: 4.2,
         specific_energy_wh_kg: (265.0, 500.0, 1000.0),
@@ -324,7 +324,7 @@ pub const CHEMISTRIES: &[Chemistry] = &[
     },
     Chemistry {
         id: "alkaline",
-        label: "alkaline primary cells",
+        label: "alkaline",
         nominal_v: 1.5,
         full_v: 1.6,
         specific_energy_wh_kg: (110.0, 160.0, 360.0),
