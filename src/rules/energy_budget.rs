@@ -80,13 +80,19 @@ impl Airframe {
     /// Level flight at mass `m` (`glauert-forward`): the hover losses beyond ideal,
     /// 1 / FM - 1, split into profile power p_0 P_ideal (the tier row, at most
     /// all of them) and induced power, kappa = 1 / FM - p_0 >= 1; a coaxial pair
-    /// keeps its hover interference sqrt(A / A_eff) as a factor on induced power.
+    /// keeps its hover interference sqrt(A / A_eff) as a factor on induced power,
+    /// but for the physical limit, which takes none.
     fn cruise(&self, m: Mass, tier: Tier) -> Cruise {
         let weight: Force = m * self.air.gravity;
         let ideal = rotor::ideal_power(weight, self.air.density, self.effective_disk[tier]);
         let losses = 1.0 / tiers::figure_of_merit(tier, self.diameter);
         let profile = PROFILE_POWER.at(tier).clamp(0.0, (losses - 1.0).max(0.0));
-        let interference = (self.disk / self.effective_disk[tier]).value.sqrt();
+        // Measured interference of a pair in cruise is not at hand: the physical limit
+        // takes none (the least a pair can have), best practice its hover value.
+        let interference = match tier {
+            Tier::PhysicalLimit => 1.0,
+            _ => (self.disk / self.effective_disk[tier]).value.sqrt(),
+        };
         Cruise {
             weight,
             density: self.air.density,
@@ -422,6 +428,7 @@ fn describe(g: &Givens, s: &Solution) -> Finding {
                 "coaxial-rotor",
                 "hoerner-1965",
                 "battery-energy",
+                "electrode-pairs",
                 "endurance-ceiling",
                 "isa",
             ]
@@ -431,6 +438,7 @@ fn describe(g: &Givens, s: &Solution) -> Finding {
                 "glauert-forward",
                 "hoerner-1965",
                 "battery-energy",
+                "electrode-pairs",
                 "endurance-ceiling",
                 "isa",
             ]
@@ -542,7 +550,7 @@ fn assumptions(g: &Givens) -> Vec<String> {
     ));
     if common::paired_rotors(claim) > 0 {
         out.push(format!(
-            "Coaxial pairs: induced power {} times that of isolated rotors (physical limit / best practice / typical), the same interference as the thrust check; in forward flight the factor is held at its hover value.",
+            "Coaxial pairs: induced power {} times that of isolated rotors (physical limit / best practice / typical), the same interference as the thrust check. In forward flight the physical limit takes none (less power than any pair needs) and best practice holds the hover value (swept wakes lessen the interference, the stacked disks' mutual induction at speed raises it; which wins is not settled here).",
             tiers::COAXIAL_INTERFERENCE.values,
         ));
     }
@@ -582,11 +590,39 @@ fn assumptions(g: &Givens) -> Vec<String> {
 /// The smallest change to the battery that makes the claimed time hold with typical parts.
 fn would_take(g: &Givens, s: &Solution) -> String {
     let claim = g.claim;
+    let typical = Tier::Typical;
+    if !s.specific_ok[typical] {
+        let stored = battery::pack_voltage(g.bat.cells, g.cell_v[typical]) * g.capacity;
+        let ordinary =
+            Mass::new::<kilogram>(stored.get::<watt_hour>() / g.chem.specific_energy(typical));
+        return format!(
+            "Ordinary {} cells holding the stated {} Wh weigh about {} g, not {} g: a take-off mass of {} g, or a battery from the best cells sold.",
+            g.chem.label,
+            Sig3(stored.get::<watt_hour>()),
+            Sig3(ordinary.get::<gram>()),
+            Sig3(g.pack_mass.get::<gram>()),
+            Sig3((g.airframe + ordinary).get::<gram>()),
+        );
+    }
     let Some(ft) = claim.claim.flight_time else {
-        return "Nothing to meet: no flight time is claimed.".to_string();
+        return if s.c_rate[typical] > g.rating {
+            format!(
+                "A pack rated for at least {} C continuous, or more capacity in parallel.",
+                Sig3(s.c_rate[typical]),
+            )
+        } else {
+            "Nothing to meet: no flight time is claimed.".to_string()
+        };
     };
-    if s.time_ok[Tier::Typical] {
-        return "Nothing more for the flight time.".to_string();
+    if s.time_ok[typical] {
+        return if s.c_rate[typical] > g.rating {
+            format!(
+                "A pack rated for at least {} C continuous, or more capacity in parallel.",
+                Sig3(s.c_rate[typical]),
+            )
+        } else {
+            "Nothing more for the flight time.".to_string()
+        };
     }
     let Some((best_mass, times)) = &s.ceiling else {
         return "A lighter airframe: the battery mass is given as all of the craft's mass."
@@ -748,6 +784,21 @@ mod tests {
     }
 
     #[test]
+    fn a_pack_above_ordinary_cells_is_told_what_ordinary_cells_would_weigh() {
+        // 4 x 3.7 V x 5 Ah = 74 Wh at the ordinary 150 Wh/kg of LiPo packs is 493 g
+        // (battery-energy); stated as 300 g (247 Wh/kg), so the craft would weigh
+        // 1000 - 300 + 493 = 1193 g.
+        let f = check(&sheet(&format!("{QUAD}{}", PACK.replace("500 g", "300 g"))));
+        assert_eq!(f.verdict, Verdict::Doubtful, "{}", f.headline);
+        assert!(
+            f.would_take.contains("weigh about 493 g, not 300 g"),
+            "{}",
+            f.would_take
+        );
+        assert!(f.would_take.contains("1193 g"), "{}", f.would_take);
+    }
+
+    #[test]
     fn the_endurance_ceiling_sits_at_a_battery_twice_the_airframe() {
         // endurance-ceiling: t ~ m_b / (m_0 + m_b)^(3/2), dt/dm_b = 0 at m_b = 2 m_0.
         // Sweep the battery mass and find the longest hover numerically at the physical
@@ -794,6 +845,18 @@ mod tests {
         };
         let ratio = hover("coaxial") / hover("side-by-side");
         assert!((ratio - 1.16).abs() < 1e-9, "{ratio}");
+        // In cruise the physical limit charges a pair no interference (the least it can
+        // have); best practice keeps the hover value, so the pair needs more power there.
+        let cruise = |layout: &str, t| {
+            let f = check(&sheet(&format!(
+                "{base}layout = \"{layout}\"\narm = \"150 mm\"\n{pack}"
+            )));
+            value(&f, keys::FLIGHT_POWER, Some(t))
+        };
+        let limit =
+            cruise("coaxial", Tier::PhysicalLimit) / cruise("side-by-side", Tier::PhysicalLimit);
+        assert!((limit - 1.0).abs() < 1e-9, "{limit}");
+        assert!(cruise("coaxial", Tier::BestPractice) > cruise("side-by-side", Tier::BestPractice));
     }
 
     #[test]
