@@ -11,11 +11,12 @@
 //! against its rating, and the endurance ceiling of the airframe.
 
 use uom::si::f64::{
-    Area, ElectricCharge, ElectricPotential, Energy, Force, Length, Mass, Power, Time, Velocity,
+    Area, ElectricCharge, ElectricPotential, Energy, Force, Length, Mass, Power,
+    TemperatureInterval, ThermodynamicTemperature, Time, Velocity,
 };
 use uom::si::{
     electric_charge::milliampere_hour, electric_potential::volt, energy::watt_hour, length::meter,
-    length::millimeter, mass::gram, mass::kilogram, power::watt,
+    length::millimeter, mass::gram, mass::kilogram, power::watt, temperature_interval,
     thermodynamic_temperature::degree_celsius, time::hour, time::minute,
     velocity::meter_per_second,
 };
@@ -123,10 +124,12 @@ impl Airframe {
 /// discharge, less the capacity lost in cold air and the voltage sag at the
 /// discharge rate `c_rate` against the pack's `rating` (`battery-energy`).
 fn usable_share(air: &Air, c_rate: f64, rating: f64, tier: Tier) -> f64 {
-    let below = (COLD_REFERENCE_DEGC - air.temperature.get::<degree_celsius>()).max(0.0);
-    let cold = (1.0 - COLD_CAPACITY_LOSS.at(tier) * below).max(0.0);
-    let sag = (1.0 - VOLTAGE_SAG.at(tier) * c_rate / rating).max(0.0);
-    DEPTH_OF_DISCHARGE.at(tier) * cold * sag
+    let reference = ThermodynamicTemperature::new::<degree_celsius>(COLD_REFERENCE_DEGC);
+    let per_kelvin =
+        TemperatureInterval::new::<temperature_interval::kelvin>(COLD_CAPACITY_LOSS.at(tier));
+    DEPTH_OF_DISCHARGE.at(tier)
+        * battery::cold_share(air.temperature, reference, per_kelvin)
+        * battery::sag_share(c_rate, rating, VOLTAGE_SAG.at(tier))
 }
 
 /// Flight time on a pack storing `stored` at the tier's profile power `p`,
@@ -410,6 +413,8 @@ fn describe(g: &Givens, s: &Solution) -> Finding {
         ));
     }
 
+    // Reports hold finite numbers only (an absurd sheet can overflow a ratio).
+    figures.retain(|f| f.value.is_finite());
     let headline = headline(g, s);
     let would_take = would_take(g, s);
     let assumptions = assumptions(g);
