@@ -134,6 +134,15 @@ pub const SOURCES: &[Source] = &[
                  motor turns at n = KV (V - I R), taken as n proportional to V at fixed KV, so \
                  thrust goes with V^2, power with V^3 and current P / V with V^2.",
     },
+    Source {
+        id: "electrode-pairs",
+        title: "Theoretical specific energy of an electrode pair",
+        detail: "Faraday's law: an electrode material of molar mass M taking n electrons stores \
+                 q = n F / M (F = 96485 C/mol); a pair of capacities q_a and q_c at cell voltage V \
+                 holds at most V / (1/q_a + 1/q_c) per mass of active material, which no whole cell \
+                 reaches. Linden's Handbook of Batteries (Reddy, 4th ed., 2011), ch. 1, tabulates \
+                 these theoretical values.",
+    },
 ];
 
 pub fn get(id: &str) -> Option<&'static Source> {

@@ -4,8 +4,8 @@
 //! page prints this table as is.
 
 use serde::Serialize;
-use uom::si::f64::Length;
-use uom::si::length::millimeter;
+use uom::si::f64::{Length, Mass};
+use uom::si::{length::millimeter, mass::gram};
 use utoipa::ToSchema;
 
 use super::{Basis, Drive};
@@ -147,14 +147,6 @@ pub const DEPTH_OF_DISCHARGE: Row = row(
     PerTier::new(1.0, 0.90, 0.80),
     Basis::CommonPractice("land with about 20 % left to spare lithium cells"),
 );
-pub const AVIONICS_POWER: Row = row(
-    Generous::Smaller,
-    "avionics_power",
-    "Power drawn by electronics other than motors",
-    "W",
-    PerTier::new(0.0, 0.5, 1.0),
-    Basis::CommonPractice("a flight controller and receiver draw about 1 W"),
-);
 pub const HOVER_FRACTION_MAX: Row = row(
     Generous::Larger,
     "hover_fraction_max",
@@ -240,6 +232,97 @@ pub const COAXIAL_INTERFERENCE: Row = row(
     Basis::Source("coaxial-rotor"),
 );
 
+// Energy budget: avionics by craft size, the forward-flight power terms, and
+// the pack's losses at the typical tier.
+
+pub const AVIONICS_SMALL: Row = row(
+    Generous::Smaller,
+    "avionics_power_small",
+    "Power drawn by electronics other than motors, craft under 100 g without its battery",
+    "W",
+    PerTier::new(0.0, 0.3, 1.0),
+    Basis::FromMemory("a micro flight controller and receiver draw 0.3-1 W"),
+);
+pub const AVIONICS_MEDIUM: Row = row(
+    Generous::Smaller,
+    "avionics_power_medium",
+    "Power drawn by electronics other than motors, craft of 100 g to 1 kg without its battery",
+    "W",
+    PerTier::new(0.0, 1.0, 4.0),
+    Basis::FromMemory(
+        "a flight controller and receiver draw about 1 W; an analogue camera and video \
+         transmitter add 2-5 W",
+    ),
+);
+pub const AVIONICS_LARGE: Row = row(
+    Generous::Smaller,
+    "avionics_power_large",
+    "Power drawn by electronics other than motors, craft over 1 kg without its battery",
+    "W",
+    PerTier::new(0.0, 3.0, 10.0),
+    Basis::FromMemory("a camera and video link draw 5-15 W; GNSS, telemetry and a gimbal add more"),
+);
+pub const FORWARD_DRAG: Row = row(
+    Generous::Smaller,
+    "forward_drag_coefficient",
+    "Drag coefficient of the body in forward flight, on its frontal area",
+    "1",
+    // Physical limit: a streamlined fairing of the body's box, never zero, so the
+    // least power over airspeed is finite.
+    PerTier::new(0.05, 0.5, 1.05),
+    Basis::FromMemory(
+        "Hoerner 1965: streamlined bodies of fineness 2-4 about 0.05 on frontal area, \
+         boxes with well-rounded edges about 0.5, a cube face-on 1.05",
+    ),
+);
+pub const PROFILE_POWER: Row = row(
+    Generous::Smaller,
+    "profile_power",
+    "Blade profile power in hover, as a share of the ideal hover power",
+    "1",
+    // The rest of the hover loss, 1 / FM - 1 - profile, is induced (kappa - 1): it
+    // falls with airspeed, where profile power does not.
+    PerTier::new(0.0, 0.15, 0.40),
+    Basis::FromMemory(
+        "Leishman 2006: a good rotor with FM 0.75 has kappa about 1.15, so profile power \
+         about 0.18 of the ideal; small propellers at low Reynolds number lose more to \
+         profile drag",
+    ),
+);
+pub const COLD_CAPACITY_LOSS: Row = row(
+    Generous::Smaller,
+    "cold_capacity_loss",
+    "Capacity lost per kelvin of air below 15 degC",
+    "1/K",
+    PerTier::new(0.0, 0.0, 0.01),
+    Basis::FromMemory(
+        "lithium packs give about 80-85 % of their capacity near 0 degC at moderate drain",
+    ),
+);
+pub const VOLTAGE_SAG: Row = row(
+    Generous::Smaller,
+    "voltage_sag",
+    "Cell voltage sag at the pack's rated continuous current, as a share of nominal",
+    "1",
+    PerTier::new(0.0, 0.0, 0.10),
+    Basis::FromMemory(
+        "a lithium cell at its rated continuous current sags about 0.3-0.4 V below \
+         nominal (internal resistance); the sag grows in proportion to the current",
+    ),
+);
+
+/// The avionics power row for a craft of this mass without its battery.
+pub fn avionics_row(mass: Mass) -> &'static Row {
+    let g = mass.get::<gram>();
+    if g < 100.0 {
+        &AVIONICS_SMALL
+    } else if g <= 1000.0 {
+        &AVIONICS_MEDIUM
+    } else {
+        &AVIONICS_LARGE
+    }
+}
+
 /// The whole table, in the order the methods page prints it.
 pub const TABLE: &[&Row] = &[
     &FM_SMALL,
@@ -252,7 +335,6 @@ pub const TABLE: &[&Row] = &[
     &BRUSHED_MOTOR,
     &BRUSHED_DRIVER,
     &DEPTH_OF_DISCHARGE,
-    &AVIONICS_POWER,
     &HOVER_FRACTION_MAX,
     &BODY_DRAG,
     &THRUST_MISMATCH,
@@ -262,6 +344,13 @@ pub const TABLE: &[&Row] = &[
     &REACTIVE_TORQUE,
     &TRI_SERVO_RANGE,
     &COAXIAL_INTERFERENCE,
+    &AVIONICS_SMALL,
+    &AVIONICS_MEDIUM,
+    &AVIONICS_LARGE,
+    &FORWARD_DRAG,
+    &PROFILE_POWER,
+    &COLD_CAPACITY_LOSS,
+    &VOLTAGE_SAG,
 ];
 
 /// The size bands every tier shares, by rotor diameter: under 100 mm, 100 to

@@ -166,6 +166,9 @@ pub struct Craft {
     pub parts_total: Option<Mass>,
     pub parts: Vec<Part>,
     pub size: Option<BoxSize>,
+    /// Electrical power drawn by everything but the motors (flight controller,
+    /// receiver, camera, video link), when the sheet states it.
+    pub avionics_power: Option<Power>,
 }
 
 #[derive(Debug, Clone, PartialEq)]

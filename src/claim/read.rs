@@ -506,6 +506,12 @@ fn read_craft(mut t: Table<'_, '_>, errors: &mut Errors) -> Option<Craft> {
             None
         }
     });
+    let avionics_power = t.si(
+        "avionics_power",
+        Dim::Power,
+        Range::closed(0.0, 1000.0, watts),
+        errors,
+    );
     let mut parts = Vec::new();
     let mut parts_ok = true;
     if let Some(node) = t.get("parts") {
@@ -566,6 +572,7 @@ fn read_craft(mut t: Table<'_, '_>, errors: &mut Errors) -> Option<Craft> {
         parts_total,
         parts,
         size,
+        avionics_power: avionics_power.map(Power::new::<watt>),
     })
 }
 

@@ -32,6 +32,8 @@ pub const DISCHARGE_RATE: &str = "discharge_rate";
 pub const DISCHARGE_RATING: &str = "discharge_rating";
 pub const ENDURANCE_CEILING: &str = "endurance_ceiling";
 pub const BEST_BATTERY_MASS: &str = "best_battery_mass";
+pub const FLIGHT_SPEED: &str = "flight_speed";
+pub const FLIGHT_POWER: &str = "flight_power";
 
 // sensing
 pub const MOMENT_OF_INERTIA: &str = "moment_of_inertia";

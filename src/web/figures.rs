@@ -527,7 +527,7 @@ pub fn thrust_bar(report: &Report) -> Drawing {
 }
 
 /// Energy the battery can give at each tier against the energy the claimed
-/// flight time needs at the hover power of that tier.
+/// flight time needs at the power of that tier's flight profile.
 pub fn energy_bar(report: &Report) -> Drawing {
     const ID: &str = "fig-energy";
     const TITLE: &str = "Energy stored and needed";
@@ -538,7 +538,7 @@ pub fn energy_bar(report: &Report) -> Drawing {
         .filter_map(|t| {
             let stored = value(finding, keys::USABLE_ENERGY, Some(t))?;
             let needed = claimed_min
-                .zip(value(finding, keys::HOVER_POWER, Some(t)))
+                .zip(value(finding, keys::FLIGHT_POWER, Some(t)))
                 .map(|(min, watts)| watts * min / 60.0);
             Some((t, stored, needed))
         })
@@ -594,7 +594,8 @@ pub fn energy_bar(report: &Report) -> Drawing {
     let caption = match claimed_min {
         Some(min) if rows.iter().any(|r| r.2.is_some()) => format!(
             "Bars to scale: the battery's usable energy under each set of assumptions, and the \
-             energy hovering for the claimed {} min takes at that set's hover power.",
+             energy the claimed {} min take at that set's flight power (least power over \
+             airspeed at the physical limit and best practice, hover at typical).",
             Sig3(min),
         ),
         _ => "Bars to scale: the battery's usable energy under each set of assumptions. No flight time is claimed, so no energy needed is drawn.".to_string(),
@@ -945,12 +946,12 @@ mod tests {
     }
 
     #[test]
-    fn energy_needed_is_hover_power_times_the_claimed_time() {
+    fn energy_needed_is_flight_power_times_the_claimed_time() {
         // Energy = power x time: 6 W for 15 min is 1.5 Wh.
         let mut e = vec![fig(keys::CLAIMED_FLIGHT_TIME, None, 15.0)];
         for t in Tier::ALL {
             e.push(fig(keys::USABLE_ENERGY, Some(t), 2.0));
-            e.push(fig(keys::HOVER_POWER, Some(t), 6.0));
+            e.push(fig(keys::FLIGHT_POWER, Some(t), 6.0));
         }
         let report = Report::new("t".into(), vec![finding("energy-budget", e)]);
         let svg = energy_bar(&report).svg.unwrap();
