@@ -73,12 +73,13 @@ mod tests {
     #[test]
     fn the_speed_for_body_and_rotor_drag_solves_the_quadratic() {
         // Worked by hand: rho = 1.225, Cd A = 0.01 m^2 -> a = 0.006125; k T = 0.04 x 5 = 0.2;
-        // F = 1 N: V = (-0.2 + sqrt(0.04 + 0.0245)) / 0.01225 = 4.4060 m/s, and the two drags add to 1 N.
+        // F = 1 N: V = (-0.2 + sqrt(0.04 + 0.0245)) / 0.01225 = 0.053969 / 0.01225 = 4.4056 m/s,
+        // and the two drags add to 1 N.
         let rho = MassDensity::new::<kilogram_per_cubic_meter>(1.225);
         let a = Area::new::<square_meter>(0.01);
         let t = Force::new::<newton>(5.0);
         let v = speed_for_drag_with_rotors(Force::new::<newton>(1.0), rho, 1.0, a, 0.04, t);
-        assert!((v.get::<meter_per_second>() - 4.4060).abs() < 1e-4, "{v:?}");
+        assert!((v.get::<meter_per_second>() - 4.4056).abs() < 1e-4, "{v:?}");
         let total = drag_force(rho, v, 1.0, a) + rotor_drag(t, v, 0.04);
         assert!((total.get::<newton>() - 1.0).abs() < 1e-12);
         // With no body area it is the rotor drag alone: V = F / (k T) = 5 m/s.

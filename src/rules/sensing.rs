@@ -442,7 +442,11 @@ fn describe(claim: &Claim, s: &Solution) -> Finding {
     assumptions.push(format!(
         "Thrust mismatch {} of one rotor's hover thrust (physical limit / best practice / typical) for {} motors; {}.",
         s.mismatch.values,
-        if std::ptr::eq(s.mismatch, &THRUST_MISMATCH_BRUSHED) { "brushed" } else { "brushless" },
+        if s.mismatch.key == THRUST_MISMATCH_BRUSHED.key {
+            "brushed"
+        } else {
+            "brushless"
+        },
         s.mismatch.basis,
     ));
     if let (Some(g), Some(tip)) = (s.tipping, s.tip) {
