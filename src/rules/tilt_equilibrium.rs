@@ -681,15 +681,26 @@ fn describe(s: &Solution) -> Finding {
     let tilt_words = deg_claim.map_or("a level".to_string(), |d| format!("a {d} deg"));
     let lean = |t: Tier| s.at[t].need.map_or(f64::NAN, |n| n.lo.get::<degree>());
     let headline = match (s.verdict, why) {
+        (Verdict::NotAssessed, _) if g.tilt.is_none() => format!(
+            "The lean it takes to hold station in the stated {wind} m/s wind needs the body size (craft.size)."
+        ),
         (Verdict::NotAssessed, _) => format!(
             "Whether the stated {wind} m/s wind holds {tilt_words} hover needs the body size (craft.size)."
         ),
-        (_, Some((t, Shortfall::Thrust))) => format!(
-            "Holding station at {} deg of lean takes {} of thrust, more than the rotors give in this air at the {} tier.",
-            Sig3(s.at[t].phi.get::<degree>()),
-            Lift(s.at[t].thrust_needed),
-            t.label(),
-        ),
+        (_, Some((t, Shortfall::Thrust))) => {
+            let given = s.at[t].thrust_in_wind.map_or("?".to_string(), |f| Lift(f).to_string());
+            let share = if t == Tier::Typical {
+                "more than the 70 % of common practice of the"
+            } else {
+                "more than the"
+            };
+            format!(
+                "Holding the weight at {} deg of lean takes {} of thrust, {share} {given} the rotors give in this air ({} tier).",
+                Sig3(s.at[t].phi.get::<degree>()),
+                Lift(s.at[t].thrust_needed),
+                t.label(),
+            )
+        }
         (_, Some((_, Shortfall::NoStation))) => format!(
             "In a {wind} m/s wind its drag is more than leaning can balance: it cannot hold station."
         ),
@@ -973,6 +984,32 @@ mod tests {
         ));
         let t = f.figure(keys::THRUST_NEEDED, None).unwrap().value;
         assert!((t - 2.0 * 0.3 * 9.806_65).abs() < 1e-6);
+    }
+
+    #[test]
+    fn holding_station_in_wind_keeps_the_margin_of_common_practice_at_the_typical_tier() {
+        // Common practice: hover at no more than 70 % of the maximum thrust. Four rotors of
+        // 90 g static thrust lift 1.2 times the 300 g; in a 5 m/s wind the lean adds a little
+        // to the thrust needed and the inflow a little to the thrust given, but not 0.7 of it.
+        let c = parse(
+            "title = \"t\"\n[craft]\nmass = \"300 g\"\nsize = \"160 mm x 80 mm x 22 mm\"\n[rotors]\ncount = 4\ndiameter = \"3 in\"\nmax_thrust = \"90 g\"\n[conditions]\nwind = \"5 m/s\"",
+            Format::Toml,
+        )
+        .unwrap();
+        let f = check(&c);
+        let given = typical(&f, keys::THRUST_IN_WIND);
+        let w = 0.3 * 9.806_65;
+        assert!(
+            given > 4.0 * 0.09 * 9.806_65,
+            "the inflow adds thrust: {given}"
+        );
+        assert!(given * 0.7 < w && given > w, "{given}");
+        assert_eq!(f.verdict, Verdict::Doubtful, "{}", f.headline);
+        assert!(
+            f.headline.contains("70 % of common practice"),
+            "{}",
+            f.headline
+        );
     }
 
     fn rho0() -> MassDensity {
