@@ -143,6 +143,23 @@ pub const SOURCES: &[Source] = &[
                  reaches. Linden's Handbook of Batteries (Reddy, 4th ed., 2011), ch. 1, tabulates \
                  these theoretical values.",
     },
+    Source {
+        id: "rotor-drag",
+        title: "Rotor drag of a multirotor in edgewise flow (blade flapping and induced drag)",
+        detail: "Mahony, Kumar, Corke, Multirotor Aerial Vehicles: Modeling, Estimation, and \
+                 Control of Quadrotor, IEEE Robotics & Automation Magazine 19(3), 2012: a \
+                 rotor moving edgewise through the air feels a drag in its plane that grows \
+                 with its thrust and the airspeed, D = k T V, from blade flapping and induced \
+                 drag; k is identified per craft (values here from memory).",
+    },
+    Source {
+        id: "digital-control",
+        title: "Sampling rate of a digital control loop",
+        detail: "Franklin, Powell, Workman, Digital Control of Dynamic Systems, 3rd ed., 1998: \
+                 a sampled loop works well when it samples many times (about ten to twenty) \
+                 within the fastest time constant it must control; slower, the motion gets away \
+                 between corrections (rule of thumb, from memory).",
+    },
 ];
 
 pub fn get(id: &str) -> Option<&'static Source> {

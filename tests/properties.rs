@@ -199,8 +199,9 @@ proptest! {
     }
 
     #[test]
-    fn a_level_hover_never_fails_the_tilt_rule(s in sheets()) {
-        let level = Sheet { tilt_deg: 0.0, ..s };
+    fn a_level_hover_in_still_air_never_fails_the_tilt_rule(s in sheets()) {
+        // In a wind a level hover leaves the drag unbalanced (issue 15), so still air only.
+        let level = Sheet { tilt_deg: 0.0, wind: 0.0, ..s };
         let f = level.report();
         prop_assert_eq!(f.finding("tilt-equilibrium").unwrap().verdict, Verdict::Consistent);
     }

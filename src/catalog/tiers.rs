@@ -323,6 +323,90 @@ pub fn avionics_row(mass: Mass) -> &'static Row {
     }
 }
 
+// Holding an attitude in wind, its moments, and the time to tip (tilt-equilibrium, sensing).
+pub const BODY_DRAG_LEAST: Row = row(
+    Generous::Smaller,
+    "body_drag_coefficient_least",
+    "Least drag coefficient of the body in a headwind, on the area it shows",
+    "1",
+    // The least drag asks least of a craft said to lean little in a wind; the band
+    // runs from this row to BODY_DRAG, nested from the physical limit inward.
+    PerTier::new(0.04, 0.5, 1.05),
+    Basis::FromMemory(
+        "Hoerner 1965: a streamlined body of revolution reaches about 0.04 on its frontal \
+         area, the least a closed body can have; a faired, rounded shell about 0.5; an \
+         ordinary craft body is a bluff box near a cube's 1.05",
+    ),
+);
+pub const ROTOR_DRAG: Row = row(
+    Generous::Larger,
+    "rotor_drag_per_thrust",
+    "Edgewise drag of a thrusting rotor per unit thrust and airspeed, D = k T V",
+    "s/m",
+    PerTier::new(0.06, 0.05, 0.03),
+    Basis::FromMemory(
+        "blade flapping and induced drag give a rotor in edgewise flow a drag linear in \
+         thrust and airspeed (rotor-drag); identified small multirotors give about \
+         0.03-0.05 s/m; no law bounds it, so the physical limit takes a little more",
+    ),
+);
+pub const ROTOR_DRAG_LEAST: Row = row(
+    Generous::Smaller,
+    "rotor_drag_per_thrust_least",
+    "Least edgewise drag of a thrusting rotor per unit thrust and airspeed",
+    "s/m",
+    // An ideal actuator disk (momentum theory) has no force in its plane.
+    PerTier::new(0.0, 0.02, 0.03),
+    Basis::FromMemory(
+        "an ideal actuator disk carries no in-plane force (momentum-theory); stiff, light \
+         rotors about 0.02 s/m, ordinary ones 0.03 and up (rotor-drag)",
+    ),
+);
+pub const TILT_TOLERANCE: Row = row(
+    Generous::Larger,
+    "tilt_tolerance",
+    "How far a claimed tilt may be from the one that holds station",
+    "deg",
+    PerTier::new(2.0, 2.0, 2.0),
+    Basis::CommonPractice(
+        "a tilt read off a photo, a clip or a drawing is good to a degree or two",
+    ),
+);
+pub const THRUST_MISMATCH_BRUSHED: Row = row(
+    Generous::Smaller,
+    "thrust_mismatch_brushed",
+    "Thrust mismatch between brushed motors at one command",
+    "1",
+    PerTier::new(0.02, 0.05, 0.10),
+    Basis::FromMemory(
+        "a brushed motor's thrust drifts with its heat and brush wear: 10 % or more \
+         between two motors of a toy",
+    ),
+);
+pub const ROTOR_MASS_SHARE: Row = row(
+    Generous::Larger,
+    "rotor_mass_share",
+    "Share of take-off mass in the motors and propellers, when the parts list does not say",
+    "1",
+    // More mass out at the arms means more inertia and a slower tip: larger is kinder.
+    PerTier::new(0.25, 0.20, 0.15),
+    Basis::FromMemory(
+        "motors and propellers make about 15-25 % of a small multirotor's take-off mass",
+    ),
+);
+pub const LOOP_SAMPLES_PER_TIP: Row = row(
+    Generous::Smaller,
+    "loop_samples_per_tip",
+    "Control loop periods needed within the time to tip",
+    "1",
+    PerTier::new(1.0, 5.0, 10.0),
+    Basis::CommonPractice(
+        "a sampled loop needs its period well inside the fastest motion it must stop, \
+         about a tenth of it (digital-control); one period at least, or the craft tips \
+         before the next correction",
+    ),
+);
+
 /// The whole table, in the order the methods page prints it.
 pub const TABLE: &[&Row] = &[
     &FM_SMALL,
@@ -351,6 +435,13 @@ pub const TABLE: &[&Row] = &[
     &PROFILE_POWER,
     &COLD_CAPACITY_LOSS,
     &VOLTAGE_SAG,
+    &BODY_DRAG_LEAST,
+    &ROTOR_DRAG,
+    &ROTOR_DRAG_LEAST,
+    &TILT_TOLERANCE,
+    &THRUST_MISMATCH_BRUSHED,
+    &ROTOR_MASS_SHARE,
+    &LOOP_SAMPLES_PER_TIP,
 ];
 
 /// The size bands every tier shares, by rotor diameter: under 100 mm, 100 to

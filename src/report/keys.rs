@@ -21,6 +21,12 @@ pub const HORIZONTAL_FORCE: &str = "horizontal_force";
 pub const THRUST_NEEDED: &str = "thrust_needed";
 pub const UNCOMPENSATED_TILT: &str = "uncompensated_tilt";
 pub const HEADWIND_NEEDED: &str = "headwind_needed";
+pub const TILT_NEEDED: &str = "tilt_needed";
+pub const STATION_DRAG: &str = "station_drag";
+pub const THRUST_IN_WIND: &str = "thrust_in_wind";
+pub const POWER_IN_WIND: &str = "power_in_wind";
+pub const PITCH_MOMENT: &str = "pitch_moment";
+pub const CG_OFFSET_NEEDED: &str = "cg_offset_needed";
 
 // energy-budget
 pub const HOVER_POWER: &str = "hover_power";
@@ -42,6 +48,8 @@ pub const REACTION_TIME: &str = "reaction_time";
 pub const ATTITUDE_DRIFT_TIME: &str = "attitude_drift_time";
 pub const HEIGHT_DRIFT_TIME: &str = "height_drift_time";
 pub const POSITION_DRIFT_TIME: &str = "position_drift_time";
+pub const ROTOR_MASS: &str = "rotor_mass";
+pub const LOOP_PERIOD: &str = "loop_period";
 
 // control-authority
 pub const RANK: &str = "rank";
