@@ -37,6 +37,11 @@ const THRUST_ESTIMATE: &[&str] = &[
     "rotors.drive",
     "rotors.max_thrust",
     "rotors.max_power",
+    // The pack the motors run on: its voltage scales the class, its rating caps the power.
+    "battery.chemistry",
+    "battery.cells",
+    "battery.capacity",
+    "battery.max_discharge",
 ];
 
 /// `geometry::placements`: where the rotors sit, how they spin and tilt.
@@ -63,6 +68,7 @@ pub const READS: &[(&str, &[&[&str]])] = &[
             AIR,
             WEIGHT,
             THRUST_ESTIMATE,
+            PLACEMENTS,
             &[
                 "claim.hover_tilt",
                 "conditions.wind",
@@ -85,6 +91,8 @@ pub const READS: &[(&str, &[&[&str]])] = &[
                 "battery.mass",
                 "battery.max_discharge",
                 "claim.flight_time",
+                "craft.size",
+                "craft.avionics_power",
             ],
         ],
     ),
@@ -94,8 +102,10 @@ pub const READS: &[(&str, &[&[&str]])] = &[
             AIR,
             WEIGHT,
             PLACEMENTS,
+            THRUST_ESTIMATE,
             &[
                 "craft.size",
+                "sensing.loop_rate",
                 "sensing.gyroscope",
                 "sensing.accelerometer",
                 "sensing.barometer",
