@@ -410,7 +410,7 @@ fn describe(claim: &Claim, s: &Solution) -> Finding {
     ));
     figures.push(fixed(
         keys::AIR_DENSITY,
-        "Air density (ISA at the stated altitude and temperature)",
+        "Air density (ISA at the stated pressure altitude, or the station pressure, and temperature)",
         s.air.density.get::<kilogram_per_cubic_meter>(),
         "kg/m^3",
     ));
@@ -564,7 +564,16 @@ fn would_take(claim: &Claim, s: &Solution) -> String {
     let est = &s.est;
     let n = s.n;
     let typical = est.available[Tier::Typical];
-    let needed = (s.weight / (typical * SIZING_FRACTION)).value.ceil() as u64;
+    let needed = (s.weight / (typical * SIZING_FRACTION)).value.ceil();
+    // Rotors that give next to no thrust are not mended by adding more of them.
+    let more_rotors = if needed.is_finite() && needed <= 1000.0 {
+        format!("{needed} rotors of this kind instead of {n}")
+    } else {
+        format!(
+            "Rotors that give real thrust (each of these gives {})",
+            Lift(typical)
+        )
+    };
     let lightest = typical * (f64::from(n) * SIZING_FRACTION);
     let range = match (est.basis, &est.pack) {
         (Basis::Class(c), Some(_)) if est.out_of_range => Some(c),
@@ -591,7 +600,7 @@ fn would_take(claim: &Claim, s: &Solution) -> String {
             Lift(lightest),
         ),
         _ => format!(
-            "{needed} rotors of this kind instead of {n}, or a craft of at most {} on the {n} it has",
+            "{more_rotors}, or a craft of at most {} on the {n} it has",
             Lift(lightest),
         ),
     };
@@ -624,10 +633,10 @@ fn assumptions(claim: &Claim, s: &Solution) -> Vec<String> {
     let air = &s.air;
     let mut out = Vec::with_capacity(12);
     out.push(format!(
-        "Air density {:.4} kg/m^3 and gravity {:.4} m/s^2 (ISA at {} m).",
+        "Air density {:.4} kg/m^3 and gravity {:.4} m/s^2 ({}).",
         air.density.get::<kilogram_per_cubic_meter>(),
         air.gravity.value,
-        Sig3(claim.conditions.altitude.value),
+        common::air_basis(claim, air),
     ));
     match est.basis {
         Basis::Stated(t) => {
