@@ -93,6 +93,8 @@ pub struct Givens {
     pub held_tilt: Angle,
     /// Rotors the craft is said to survive losing.
     pub claimed: usize,
+    /// Why the thrust is not the sheet's own figure, where thrust-margin replaced it.
+    pub thrust_note: Option<&'static str>,
 }
 
 impl Givens {
@@ -110,13 +112,15 @@ impl Givens {
         };
         let air = common::air(claim);
         let held_tilt = geometry::held_body_tilt(claim);
+        let estimate = thrust_margin::estimate(claim, &air);
         Ok(Givens {
             placements: geometry::holding(placements, held_tilt),
             diameter,
             weight: common::weight(claim, &air),
-            thrust: thrust_margin::estimate(claim, &air).map(|e| e.available),
+            thrust: estimate.as_ref().map(|e| e.available),
             held_tilt,
             claimed: claim.claim.survives_rotor_failure as usize,
+            thrust_note: estimate.as_ref().and_then(|e| e.bound_used()),
         })
     }
 }
@@ -369,6 +373,9 @@ pub fn describe(claim: &Claim, an: &Analysis) -> Finding {
     let held = held_tilt_words(claim, an);
     if let Some(words) = &held {
         assumptions.push(words.assumption.clone());
+    }
+    if let Some(note) = an.givens.thrust_note {
+        assumptions.push(format!("Rotor thrust: {note} (thrust-margin)."));
     }
     let sources: &[&str] = &["du-2015", "statics"];
 

@@ -86,3 +86,33 @@ pub fn check(claim: &Claim) -> Checked {
         control,
     }
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::claim::{parse, Format};
+
+    #[test]
+    fn no_rule_builds_on_a_stated_thrust_that_thrust_margin_calls_impossible() {
+        // Momentum theory: 4 W on a 55 mm rotor holds at most 0.4533 N (46 gf) at sea
+        // level with FM = eta = 1; 60 g stated is impossible, and every rule that reads
+        // the rotor thrust takes the bound instead and says so.
+        let text = "title = \"t\"\n[craft]\nmass = \"50 g\"\nsize = \"100 mm x 100 mm x 30 mm\"\n\
+                    [rotors]\ncount = 4\nlayout = \"quad-x\"\narm = \"60 mm\"\ndiameter = \"55 mm\"\n\
+                    max_thrust = \"60 g\"\nmax_power = \"4 W\"\ndrive = \"brushed\"\n\
+                    [claim]\nhover_tilt = \"10 deg\"\n[conditions]\nwind = \"3 m/s\"\n";
+        let report = run_all(&parse(text, Format::Toml).unwrap());
+        let thrust = report.finding(thrust_margin::ID).unwrap();
+        assert_eq!(thrust.verdict, crate::report::Verdict::Impossible);
+        for rule in [tilt_equilibrium::ID, control_authority::ID] {
+            let f = report.finding(rule).unwrap();
+            assert!(
+                f.assumptions
+                    .iter()
+                    .any(|a| a.contains(thrust_margin::BOUND_USED)),
+                "{rule}: {:?}",
+                f.assumptions
+            );
+        }
+    }
+}

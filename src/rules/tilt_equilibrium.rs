@@ -159,6 +159,8 @@ struct Givens {
     thrust: Option<PerTier<Force>>,
     /// One rotor's disk area per tier (a coaxial rotor's share reduced by its interference).
     disk: Option<PerTier<Area>>,
+    /// Why the thrust is not the sheet's own figure, where thrust-margin replaced it.
+    thrust_note: Option<&'static str>,
 }
 
 /// Tilting rotors: their range either way, the hinge line's height above the
@@ -340,6 +342,7 @@ fn solve(claim: &Claim) -> Option<Solution> {
     let count = f64::from(r.count);
     let est = thrust_margin::estimate(claim, &air);
     let thrust = est.as_ref().map(|e| e.available);
+    let thrust_note = est.as_ref().and_then(|e| e.bound_used());
     let diameter = est
         .as_ref()
         .and_then(|e| e.diameter.map(|(d, _)| d))
@@ -388,6 +391,7 @@ fn solve(claim: &Claim) -> Option<Solution> {
         count,
         thrust,
         disk,
+        thrust_note,
     };
     let still = wind.get::<meter_per_second>() <= 0.0;
     let tolerance = |t: Tier| deg(TILT_TOLERANCE.at(t));
@@ -809,6 +813,9 @@ fn describe(s: &Solution) -> Finding {
     if g.thrust.is_none() {
         assumptions
             .push("Thrust at tilt not compared: the sheet gives no thrust figure.".to_string());
+    }
+    if let Some(note) = g.thrust_note {
+        assumptions.push(format!("Rotor thrust: {note} (thrust-margin)."));
     }
     Finding {
         rule: ID,
