@@ -283,6 +283,63 @@ async fn an_uploaded_file_is_checked_like_a_pasted_sheet() {
     assert_eq!(page_verdict(&a.body), Some(verdict_id_of(d.text)));
 }
 
+/// A multipart form body: (field name, file name if a file, content).
+fn multipart(parts: &[(&str, Option<&str>, &str)]) -> (String, String) {
+    let b = "liftaudit-test-boundary";
+    let mut body = String::new();
+    for (name, file, content) in parts {
+        body += &format!("--{b}\r\nContent-Disposition: form-data; name=\"{name}\"");
+        if let Some(file) = file {
+            body += &format!("; filename=\"{file}\"\r\nContent-Type: application/toml");
+        }
+        body += &format!("\r\n\r\n{content}\r\n");
+    }
+    body += &format!("--{b}--\r\n");
+    (format!("multipart/form-data; boundary={b}"), body)
+}
+
+#[tokio::test]
+async fn several_uploaded_sheets_are_refused_with_their_names() {
+    let d = hover_lamp();
+    let (kind, body) = multipart(&[
+        ("sheet", Some("lamp.toml"), d.text),
+        ("sheet", Some("quad.toml"), d.text),
+        ("from", None, "sheet"),
+    ]);
+    let a = post("/check", &kind, body).await;
+    assert_eq!(a.status, StatusCode::UNPROCESSABLE_ENTITY);
+    assert!(
+        a.body.contains(
+            "2 sheet files were uploaded (lamp.toml, quad.toml); upload one file at a time."
+        ),
+        "{}",
+        a.body
+    );
+}
+
+#[tokio::test]
+async fn a_file_beside_a_filled_sheet_box_is_the_one_checked_and_the_page_says_so() {
+    let d = hover_lamp();
+    let other = crate_demo("classroom-quad");
+    let (kind, body) = multipart(&[
+        ("sheet", None, other),
+        ("sheet", Some("lamp.toml"), d.text),
+        ("from", None, "sheet"),
+    ]);
+    let a = post("/check", &kind, body).await;
+    assert_eq!(a.status, StatusCode::OK, "{}", a.body);
+    assert_eq!(page_verdict(&a.body), Some(verdict_id_of(d.text)));
+    assert!(
+        a.body.contains("The uploaded file &#39;lamp.toml&#39; was checked; the sheet pasted in the box was not used."),
+        "{}",
+        a.body
+    );
+}
+
+fn crate_demo(name: &str) -> &'static str {
+    demo::find(name).expect("a demo of that name").text
+}
+
 #[tokio::test]
 async fn a_refused_sheet_comes_back_in_the_form_with_each_field_error() {
     let sheet = "title = \"Bad one\"\n[craft]\nmass = \"55 mm\"\n[rotors]\ncount = 2\ndiameter = \"55 g\"\n";
