@@ -96,7 +96,9 @@ impl Cruise {
         let (mut a, mut b) = (0.0, top);
         let (mut c, mut d) = (b - phi * (b - a), a + phi * (b - a));
         let (mut pc, mut pd) = (power(c), power(d));
-        for _ in 0..48 {
+        // Each step keeps 0.618 of the bracket: 32 steps leave 2e-7 of it, far
+        // below what the power notices near its minimum, where it is flat.
+        for _ in 0..32 {
             if pc < pd {
                 b = d;
                 d = c;
