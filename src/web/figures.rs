@@ -98,10 +98,25 @@ const fn face(anchor: &'static str, size: f64, colour: &'static str) -> Face {
     }
 }
 
+/// A coordinate, width or size of a drawing, to a tenth of a unit (enough for
+/// a drawing a few hundred units across): rounded to tenths, then written in
+/// the shortest form that reads back as that value ("12.5", "34"). The std
+/// formatter's fixed-precision path (`{:.1}`) works out the exact binary
+/// value, and a verdict page writes a few hundred coordinates: that path was
+/// most of the page's cost (callgrind, `render-page`); the shortest form is not.
+#[derive(Debug, Clone, Copy)]
+struct Tenths(f64);
+
+impl fmt::Display for Tenths {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        // Adding 0.0 turns a rounded -0.0 into 0.0.
+        write!(f, "{}", (self.0 * 10.0).round() / 10.0 + 0.0)
+    }
+}
+
 /// A tiny SVG writer: shapes with presentation attributes only (no `style`),
 /// so the page's Content-Security-Policy holds and print keeps the colours.
-/// Coordinates, widths and sizes are written to one decimal, enough for a
-/// drawing a few hundred units across. Writing to a `String` cannot fail,
+/// Coordinates, widths and sizes are written as [`Tenths`]. Writing to a `String` cannot fail,
 /// so the writes' results are not kept.
 struct Svg {
     body: String,
@@ -139,9 +154,12 @@ impl Svg {
     fn line(&mut self, (x1, y1): (f64, f64), (x2, y2): (f64, f64), pen: Pen, dash: bool) {
         let _ = write!(
             self.body,
-            "<line x1=\"{x1:.1}\" y1=\"{y1:.1}\" x2=\"{x2:.1}\" y2=\"{y2:.1}\" \
-             stroke-width=\"{:.1}\" stroke=\"{}\"{}/>",
-            pen.width,
+            "<line x1=\"{}\" y1=\"{}\" x2=\"{}\" y2=\"{}\" stroke-width=\"{}\" stroke=\"{}\"{}/>",
+            Tenths(x1),
+            Tenths(y1),
+            Tenths(x2),
+            Tenths(y2),
+            Tenths(pen.width),
             pen.colour,
             if dash {
                 " stroke-dasharray=\"5 4\""
@@ -169,26 +187,37 @@ impl Svg {
         );
         let _ = write!(
             self.body,
-            "<polygon points=\"{:.1},{:.1} {:.1},{:.1} {:.1},{:.1}\" fill=\"{}\"/>",
-            to.0, to.1, left.0, left.1, right.0, right.1, pen.colour,
+            "<polygon points=\"{},{} {},{} {},{}\" fill=\"{}\"/>",
+            Tenths(to.0),
+            Tenths(to.1),
+            Tenths(left.0),
+            Tenths(left.1),
+            Tenths(right.0),
+            Tenths(right.1),
+            pen.colour,
         );
     }
 
     fn rect(&mut self, x: f64, y: f64, w: f64, h: f64, fill: &str, stroke: &str) {
         let _ = write!(
             self.body,
-            "<rect x=\"{x:.1}\" y=\"{y:.1}\" width=\"{:.1}\" height=\"{:.1}\" \
+            "<rect x=\"{}\" y=\"{}\" width=\"{}\" height=\"{}\" \
              fill=\"{fill}\" stroke=\"{stroke}\"/>",
-            w.max(0.0),
-            h.max(0.0),
+            Tenths(x),
+            Tenths(y),
+            Tenths(w.max(0.0)),
+            Tenths(h.max(0.0)),
         );
     }
 
     fn circle(&mut self, (cx, cy): (f64, f64), r: f64, fill: &str, stroke: &str, dash: bool) {
         let _ = write!(
             self.body,
-            "<circle cx=\"{cx:.1}\" cy=\"{cy:.1}\" r=\"{r:.1}\" fill=\"{fill}\" \
+            "<circle cx=\"{}\" cy=\"{}\" r=\"{}\" fill=\"{fill}\" \
              stroke=\"{stroke}\" stroke-width=\"1.5\"{}/>",
+            Tenths(cx),
+            Tenths(cy),
+            Tenths(r),
             if dash {
                 " stroke-dasharray=\"4 3\""
             } else {
@@ -203,9 +232,15 @@ impl Svg {
     fn arc(&mut self, from: (f64, f64), r: f64, flags: &str, to: (f64, f64), pen: Pen) {
         let _ = write!(
             self.body,
-            "<path stroke-width=\"{:.1}\" d=\"M {:.1} {:.1} A {r:.1} {r:.1} 0 {flags} {:.1} {:.1}\" \
+            "<path stroke-width=\"{}\" d=\"M {} {} A {r} {r} 0 {flags} {} {}\" \
              fill=\"none\" stroke=\"{}\"/>",
-            pen.width, from.0, from.1, to.0, to.1, pen.colour,
+            Tenths(pen.width),
+            Tenths(from.0),
+            Tenths(from.1),
+            Tenths(to.0),
+            Tenths(to.1),
+            pen.colour,
+            r = Tenths(r),
         );
     }
 
@@ -213,8 +248,12 @@ impl Svg {
     fn text(&mut self, (x, y): (f64, f64), face: Face, text: impl fmt::Display) {
         let _ = write!(
             self.body,
-            "<text x=\"{x:.1}\" y=\"{y:.1}\" font-size=\"{:.1}\" text-anchor=\"{}\" fill=\"{}\">",
-            face.size, face.anchor, face.colour,
+            "<text x=\"{}\" y=\"{}\" font-size=\"{}\" text-anchor=\"{}\" fill=\"{}\">",
+            Tenths(x),
+            Tenths(y),
+            Tenths(face.size),
+            face.anchor,
+            face.colour,
         );
         self.escaped(text);
         self.body.push_str("</text>");
@@ -851,6 +890,23 @@ fn spin_arrow(svg: &mut Svg, (cx, cy): (f64, f64), r: f64, spin: Spin) {
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    #[test]
+    fn coordinates_are_written_to_the_nearest_tenth_in_their_shortest_form() {
+        // Rounded to tenths, then the shortest decimal that reads back as that value.
+        let cases = [
+            (12.34, "12.3"),
+            (12.35, "12.4"),
+            (34.0, "34"),
+            (-0.04, "0"),
+            (-2.26, "-2.3"),
+            (639.96, "640"),
+            (0.05, "0.1"),
+        ];
+        for (v, text) in cases {
+            assert_eq!(Tenths(v).to_string(), text, "{v}");
+        }
+    }
 
     use crate::claim::{self, Format};
     use crate::report::{Figure, Finding, Verdict};
