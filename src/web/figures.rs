@@ -437,8 +437,9 @@ pub fn free_body(report: &Report, claim: &Claim) -> Drawing {
     let caption = if f.unbalanced > 0.0 {
         format!(
             "Side view, to scale ({} N per bar). Tilted {} deg, the rotors must push {} N to carry \
-             the {} N weight, and the forward part of that push, {} N, has nothing to balance it \
-             in still air: the craft would accelerate forward.",
+             the {} N weight, and the forward part of that push, {} N, must be balanced by a \
+             headwind, a support or rotors that tilt back; left unbalanced, the craft would \
+             accelerate forward.",
             Sig3(step),
             Sig3(f.tilt_deg),
             Sig3(f.thrust),
