@@ -99,9 +99,11 @@ fn report_of(text: &str, format: Format) -> Result<Report, Error> {
     responses(
         (status = 200, description = "The report on the sheet", body = Report),
         (status = 400, description = "Not well-formed JSON or TOML (with line and column), or not UTF-8", body = ErrorBody),
+        (status = 408, description = "The body did not arrive in time (it paused too long, or the whole request took too long)", body = ErrorBody),
         (status = 413, description = "The body is larger than 1 MiB", body = ErrorBody),
-        (status = 415, description = "A Content-Type that is not a sheet format", body = ErrorBody),
-        (status = 422, description = "Well-formed, but fields are missing, unknown, in the wrong unit or out of range; one entry per field", body = ErrorBody),
+        (status = 415, description = "A Content-Type that is not a sheet format, or a compressed body (Content-Encoding)", body = ErrorBody),
+        (status = 422, description = "Well-formed, but fields are missing, unknown, in the wrong unit or out of range; one entry per field (at most 50, then one that counts the rest)", body = ErrorBody),
+        (status = 429, description = "This client address already has the most requests with a body in progress", body = ErrorBody),
     ),
 )]
 pub async fn check(request: Request) -> Result<Response, ApiError> {
