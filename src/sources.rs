@@ -160,6 +160,32 @@ pub const SOURCES: &[Source] = &[
                  within the fastest time constant it must control; slower, the motion gets away \
                  between corrections (rule of thumb, from memory).",
     },
+    Source {
+        id: "iec-61672",
+        title: "IEC 61672-1:2013 Electroacoustics - Sound level meters - Part 1: Specifications",
+        detail: "International Electrotechnical Commission, 2013, annex E. A-weighting \
+                 A(f) = 20 log10 R_A(f) + 2.00 dB, R_A = 12194^2 f^4 / ((f^2 + 20.6^2) \
+                 sqrt((f^2 + 107.7^2)(f^2 + 737.9^2)) (f^2 + 12194^2)); reference pressure \
+                 20 uPa.",
+    },
+    Source {
+        id: "spherical-spreading",
+        title: "Free-field spreading from a point source and the incoherent sum of levels",
+        detail: "Any acoustics text (e.g. Kinsler, Frey, Coppens and Sanders, Fundamentals of \
+                 Acoustics, 4th ed., 2000, ch. 5 and 10). L(r) = L(r0) - 20 log10(r / r0); \
+                 incoherent sources add as L = 10 log10 sum 10^(L_i / 10).",
+    },
+    Source {
+        id: "gutin-1936",
+        title: "Gutin, On the sound field of a rotating propeller (1936)",
+        detail: "L. Gutin, Physikalische Zeitschrift der Sowjetunion 9 (1936), 57-71; NACA TM \
+                 1195 (1948) in translation; as reviewed in Marte and Kurtz, A Review of \
+                 Aerodynamic Noise from Propellers, Rotors, and Lift Fans, JPL TR 32-1462, 1970. \
+                 Steady-loading far-field tone of harmonic m, rms: p_m = m B Omega / (2 sqrt(2) \
+                 pi c r) |-T cos(theta) + Q c / (Omega R_e^2)| J_mB(m B Omega R_e sin(theta) / \
+                 c), theta from the thrust axis, R_e = 0.8 R (the form as recalled from memory, \
+                 not checked against the document here).",
+    },
 ];
 
 pub fn get(id: &str) -> Option<&'static Source> {

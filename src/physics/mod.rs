@@ -2,6 +2,7 @@
 //! formula and the id of its source in [`crate::sources`]; no function does
 //! I/O, keeps state or panics.
 
+pub mod acoustics;
 pub mod atmosphere;
 pub mod battery;
 pub mod body;
