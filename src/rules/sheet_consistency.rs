@@ -571,14 +571,6 @@ fn figures(check: &Check, out: &mut Vec<crate::report::Figure>) {
     }
 }
 
-/// A sentence to follow a colon: its first letter in lower case.
-fn lower_first(sentence: &str) -> String {
-    let mut chars = sentence.chars();
-    chars.next().map_or_else(String::new, |c| {
-        c.to_lowercase().chain(chars).collect::<String>()
-    })
-}
-
 /// The finding: figures per comparison, the contradictions first in the headline.
 pub fn describe(claim: &Claim, solved: &Solution) -> Finding {
     if solved.checks.is_empty() {
@@ -626,7 +618,8 @@ pub fn describe(claim: &Claim, solved: &Solution) -> Finding {
             solved.checks.len(),
             if solved.checks.len() == 1 { "" } else { "s" }
         ),
-        1 => format!("The sheet contradicts itself: {}", lower_first(&found[0])),
+        // The finding's own sentence may hold a colon: it follows as a sentence of its own.
+        1 => format!("The sheet contradicts itself. {}", found[0]),
         n => format!(
             "The sheet contradicts itself in {n} places: {}",
             found.join(" ")
