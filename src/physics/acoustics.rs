@@ -71,80 +71,73 @@ pub fn bessel_j(n: u32, x: f64) -> f64 {
     sum
 }
 
-/// One rotor's steady-loading tone at harmonic m, rms, by Gutin:
-/// p_m = m B Omega / (2 sqrt(2) pi c r) |-T cos(theta) + Q c / (Omega R_e^2)|
-/// J_mB(m B Omega R_e sin(theta) / c), R_e = 0.8 R, theta from the thrust axis
-/// (`gutin-1936`).
-#[allow(clippy::too_many_arguments)]
-pub fn gutin_harmonic(
-    harmonic: u32,
-    blades: u32,
-    thrust: Force,
-    torque: Torque,
-    rate: AngularVelocity,
-    radius: Length,
-    sound_speed: Velocity,
-    distance: Length,
-    angle_from_axis: Angle,
-) -> Pressure {
-    let mb = f64::from(harmonic * blades);
-    let omega = rate.get::<radian_per_second>();
-    let c = sound_speed.get::<meter_per_second>();
-    let re = 0.8 * radius.get::<meter>();
-    let r = distance.get::<meter>();
-    let th = angle_from_axis.get::<radian>();
-    let loading = (-thrust.get::<newton>() * th.cos()
-        + torque.get::<newton_meter>() * c / (omega * re * re))
-        .abs();
-    let bessel = bessel_j(harmonic * blades, mb * omega * re * th.sin() / c);
-    Pressure::new::<pascal>(mb * omega / (2.0 * 2f64.sqrt() * PI * c * r) * loading * bessel.abs())
-}
-
 /// Blade-passing frequency f = B Omega / (2 pi) (`gutin-1936`).
 pub fn blade_passing_frequency(blades: u32, rate: AngularVelocity) -> Frequency {
     Frequency::new::<hertz>(f64::from(blades) * rate.get::<radian_per_second>() / (2.0 * PI))
 }
 
-/// One rotor's A-weighted steady-loading tonal level: the harmonics of
-/// [`gutin_harmonic`], each A-weighted at m f_BPF, summed incoherently, from
-/// the first until a harmonic falls 30 dB below the running total or at 40
-/// (`gutin-1936`, `iec-61672`, `spherical-spreading`).
-#[allow(clippy::too_many_arguments)]
-pub fn gutin_a_weighted_db(
-    blades: u32,
-    thrust: Force,
-    torque: Torque,
-    rate: AngularVelocity,
-    radius: Length,
-    sound_speed: Velocity,
-    distance: Length,
-    angle_from_axis: Angle,
-) -> f64 {
-    let bpf = blade_passing_frequency(blades, rate);
-    let mut energy = 0.0;
-    for m in 1..=40u32 {
-        let p = gutin_harmonic(
-            m,
-            blades,
-            thrust,
-            torque,
-            rate,
-            radius,
-            sound_speed,
-            distance,
-            angle_from_axis,
-        );
-        let e = (p.get::<pascal>() / REFERENCE_PRESSURE_PA).powi(2)
-            * 10f64.powf(a_weighting_db(bpf * f64::from(m)) / 10.0);
-        energy += e;
-        if m > 1 && e < 1e-3 * energy {
-            break;
-        }
+/// A rotor as Gutin's formula sees it: its blades, the thrust and torque it
+/// makes, how fast it turns and its tip radius (`gutin-1936`).
+#[derive(Debug, Clone, Copy)]
+pub struct RotorTone {
+    pub blades: u32,
+    pub thrust: Force,
+    pub torque: Torque,
+    pub rate: AngularVelocity,
+    pub radius: Length,
+}
+
+/// Where the sound is heard: the speed of sound, the distance from the rotor
+/// and the angle from its thrust axis.
+#[derive(Debug, Clone, Copy)]
+pub struct Listener {
+    pub sound_speed: Velocity,
+    pub distance: Length,
+    pub angle_from_axis: Angle,
+}
+
+impl RotorTone {
+    /// One rotor's steady-loading tone at harmonic m, rms, by Gutin:
+    /// p_m = m B Omega / (2 sqrt(2) pi c r) |-T cos(theta) + Q c / (Omega R_e^2)|
+    /// J_mB(m B Omega R_e sin(theta) / c), R_e = 0.8 R, theta from the thrust axis
+    /// (`gutin-1936`).
+    pub fn harmonic(&self, harmonic: u32, at: &Listener) -> Pressure {
+        let mb = f64::from(harmonic * self.blades);
+        let omega = self.rate.get::<radian_per_second>();
+        let c = at.sound_speed.get::<meter_per_second>();
+        let re = 0.8 * self.radius.get::<meter>();
+        let r = at.distance.get::<meter>();
+        let th = at.angle_from_axis.get::<radian>();
+        let loading = (-self.thrust.get::<newton>() * th.cos()
+            + self.torque.get::<newton_meter>() * c / (omega * re * re))
+            .abs();
+        let bessel = bessel_j(harmonic * self.blades, mb * omega * re * th.sin() / c);
+        Pressure::new::<pascal>(
+            mb * omega / (2.0 * 2f64.sqrt() * PI * c * r) * loading * bessel.abs(),
+        )
     }
-    if energy > 0.0 {
-        10.0 * energy.log10()
-    } else {
-        f64::NEG_INFINITY
+
+    /// One rotor's A-weighted steady-loading tonal level: the harmonics of
+    /// [`RotorTone::harmonic`], each A-weighted at m f_BPF, summed incoherently, from
+    /// the first until a harmonic falls 30 dB below the running total or at 40
+    /// (`gutin-1936`, `iec-61672`, `spherical-spreading`).
+    pub fn a_weighted_db(&self, at: &Listener) -> f64 {
+        let bpf = blade_passing_frequency(self.blades, self.rate);
+        let mut energy = 0.0;
+        for m in 1..=40u32 {
+            let p = self.harmonic(m, at);
+            let e = (p.get::<pascal>() / REFERENCE_PRESSURE_PA).powi(2)
+                * 10f64.powf(a_weighting_db(bpf * f64::from(m)) / 10.0);
+            energy += e;
+            if m > 1 && e < 1e-3 * energy {
+                break;
+            }
+        }
+        if energy > 0.0 {
+            10.0 * energy.log10()
+        } else {
+            f64::NEG_INFINITY
+        }
     }
 }
 
@@ -205,38 +198,27 @@ mod tests {
         assert!((bessel_j(0, 2.0) - 0.223_890_779_1).abs() < 1e-9);
     }
 
-    struct Rotor {
-        thrust: Force,
-        torque: Torque,
-        rate: AngularVelocity,
-        radius: Length,
-        c: Velocity,
-        r: Length,
-    }
-
-    fn small_rotor(rpm: f64) -> Rotor {
-        Rotor {
+    fn small_rotor(rpm: f64) -> RotorTone {
+        RotorTone {
+            blades: 2,
             thrust: Force::new::<newton>(5.0),
             torque: Torque::new::<newton_meter>(0.1),
             rate: AngularVelocity::new::<radian_per_second>(rpm * 2.0 * PI / 60.0),
             radius: Length::new::<meter>(0.127),
-            c: Velocity::new::<meter_per_second>(343.0),
-            r: Length::new::<meter>(1.0),
         }
     }
 
-    fn first(rotor: &Rotor, deg: f64) -> Pressure {
-        gutin_harmonic(
-            1,
-            2,
-            rotor.thrust,
-            rotor.torque,
-            rotor.rate,
-            rotor.radius,
-            rotor.c,
-            rotor.r,
-            Angle::new::<radian>(deg.to_radians()),
-        )
+    /// One metre away, at `deg` from the thrust axis, in air at 343 m/s.
+    fn listener(deg: f64) -> Listener {
+        Listener {
+            sound_speed: Velocity::new::<meter_per_second>(343.0),
+            distance: Length::new::<meter>(1.0),
+            angle_from_axis: Angle::new::<radian>(deg.to_radians()),
+        }
+    }
+
+    fn first(rotor: &RotorTone, deg: f64) -> Pressure {
+        rotor.harmonic(1, &listener(deg))
     }
 
     #[test]
@@ -270,18 +252,7 @@ mod tests {
     fn a_weighted_tonal_level_falls_off_the_rotor_plane_toward_the_axis() {
         // Gutin 1936: the tone is loudest near the rotor plane and vanishes on the axis.
         let r = small_rotor(6000.0);
-        let at = |deg: f64| {
-            gutin_a_weighted_db(
-                2,
-                r.thrust,
-                r.torque,
-                r.rate,
-                r.radius,
-                r.c,
-                r.r,
-                Angle::new::<radian>(deg.to_radians()),
-            )
-        };
+        let at = |deg: f64| r.a_weighted_db(&listener(deg));
         assert!(at(100.0) > at(150.0));
         assert!(at(150.0) > at(175.0));
     }
