@@ -47,13 +47,10 @@ pub const REGISTRY: &[Rule] = &[
     rule!(control_authority),
 ];
 
-/// Runs every rule and gathers the report.
+/// Runs every rule and gathers the report ([`check`] without the control
+/// analysis it keeps for the drawings).
 pub fn run_all(claim: &Claim) -> Report {
-    Report::new(
-        claim.title.clone(),
-        REGISTRY.iter().map(|r| (r.check)(claim)).collect(),
-    )
-    .with_unused(fields::unused(claim))
+    check(claim).report
 }
 
 /// A checked claim: the report, and the control analysis the
@@ -65,8 +62,8 @@ pub struct Checked {
     pub control: Option<control_authority::Analysis>,
 }
 
-/// Runs every rule, as [`run_all`] does, and keeps the control analysis
-/// beside the report, so that nothing works it out a second time.
+/// Runs every rule and keeps the control analysis beside the report, so
+/// that nothing works it out a second time.
 pub fn check(claim: &Claim) -> Checked {
     let mut control = None;
     let findings = REGISTRY
